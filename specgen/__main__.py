@@ -1,0 +1,5 @@
+import sys
+
+from specgen.cli import main
+
+sys.exit(main())

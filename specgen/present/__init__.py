@@ -1,0 +1,1 @@
+"""Presentation: read Results and show them; never recompute."""

@@ -1,0 +1,72 @@
+"""Machine-readable output: every number with its unit, every check with where it applies."""
+
+from __future__ import annotations
+
+import hashlib
+import json
+
+from specgen import __version__
+from specgen.cautions import CAUTIONS
+from specgen.pipeline import Outcome
+from specgen.present.values import assumed_inputs, convert
+from specgen.trace import Value
+from specgen.units import KINDS
+
+OUTPUT_FORMAT = 1
+
+
+def _value(v: Value, system: str) -> dict:
+    number, unit = convert(v.value, v.kind, system)
+    return {"label": v.label, "value": number, "unit": unit, "si_value": v.value,
+            "si_unit": KINDS[v.kind].si_unit.replace("**", "^"), "assumed": v.assumed}
+
+
+def _limit(x: float | None, kind: str, system: str) -> dict | None:
+    if x is None:
+        return None
+    if not kind:
+        return {"value": x, "unit": ""}
+    number, unit = convert(x, kind, system)
+    return {"value": number, "unit": unit}
+
+
+def document(o: Outcome) -> dict:
+    system = o.machine.display_units
+    r = o.results
+    return {
+        "specgen": __version__,
+        "output_format": OUTPUT_FORMAT,
+        "spec": {"file": o.source.name, "sha256": hashlib.sha256(o.source.raw).hexdigest()},
+        "machine": {"id": o.machine.id, "title": o.machine.title, "revision": o.machine.revision,
+                    "display_units": system},
+        "verdict": r.verdict,
+        "counts": r.counts(),
+        "duty_points": [
+            {"drive": d.drive, "duty": d.duty, "direction": d.direction,
+             "values": {k: _value(v, system) for k, v in d.values.items()}}
+            for d in r.duties
+        ],
+        "supply_modes": [
+            {"supply": s.supply, "mode": s.mode,
+             "contributions": [{"drive": c.drive, "duty": c.duty,
+                                **dict(zip(("flow", "unit"), convert(c.flow, "flow", system)))}
+                               for c in s.contributions],
+             "values": {k: _value(v, system) for k, v in s.values.items()}}
+            for s in r.supply_modes
+        ],
+        "checks": [
+            {"id": c.id, "title": c.title, "status": c.status,
+             "value": _limit(c.value, c.kind, system), "limit": _limit(c.limit, c.kind, system),
+             "message": c.message,
+             "where": {"drive": c.drive, "duty": c.duty, "supply": c.supply, "mode": c.mode}}
+            for c in r.checks
+        ],
+        "assumed": assumed_inputs(o.machine),
+        "cautions": [{"title": t, "text": x} for t, x in CAUTIONS],
+    }
+
+
+def render(outcomes: list[Outcome]) -> str:
+    docs = [document(o) for o in outcomes]
+    body = docs[0] if len(docs) == 1 else {"specgen": __version__, "output_format": OUTPUT_FORMAT, "specs": docs}
+    return json.dumps(body, indent=2, ensure_ascii=False) + "\n"

@@ -1,0 +1,66 @@
+"""Terminal text: the drive table, the supply table and the checks, in aligned columns."""
+
+from __future__ import annotations
+
+from specgen.cautions import SHORT
+from specgen.pipeline import Outcome
+from specgen.present.values import assumed_inputs, format_si
+
+DUTY_COLUMNS = (
+    ("motor_torque", "T motor"), ("motor_speed", "n motor"), ("pressure_differential", "dp"),
+    ("inlet_pressure", "p in"), ("flow_demand", "q"), ("shaft_power", "P shaft"),
+    ("relief_torque", "T at relief"),
+)
+SUPPLY_COLUMNS = (
+    ("flow_demand", "demand"), ("pump_delivery", "delivery"), ("flow_surplus", "surplus"),
+    ("working_pressure", "p work"), ("pump_input_power", "P pump in"), ("prime_mover_power", "P available"),
+)
+ORDER = {"fail": 0, "warn": 1, "pass": 2}
+
+
+def table(header: list[str], rows: list[list[str]]) -> list[str]:
+    widths = [max(len(r[i]) for r in [header] + rows) for i in range(len(header))]
+    def line(cells):
+        return "  ".join(c.ljust(w) for c, w in zip(cells, widths)).rstrip()
+    return [line(header), line(["-" * w for w in widths])] + [line(r) for r in rows]
+
+
+def headline(o: Outcome) -> str:
+    m, c = o.machine, o.results.counts()
+    return (f"{o.source.name}: {o.results.verdict.upper()}  {m.title} rev {m.revision}  "
+            f"({c['pass']} pass, {c['warn']} warn, {c['fail']} fail)")
+
+
+def checks_lines(o: Outcome, only_problems: bool) -> list[str]:
+    checks = sorted(o.results.checks, key=lambda c: ORDER[c.status])
+    if only_problems:
+        checks = [c for c in checks if c.status != "pass"]
+    return [f"{c.status.upper():4}  {c.id:20} {c.where}: {c.message}" for c in checks]
+
+
+def render(o: Outcome, quiet: bool = False) -> str:
+    system = o.machine.display_units
+    out = [headline(o)]
+    if not quiet:
+        out += ["", "Drives at each duty point (motor shaft)"]
+        rows = []
+        for r in o.results.duties:
+            rows.append([r.drive, r.duty + (" (overrun)" if r.direction == "overrunning" else "")] + [
+                format_si(r.values[k].value, r.values[k].kind, system) for k, _ in DUTY_COLUMNS])
+        out += table(["drive", "duty point"] + [h for _, h in DUTY_COLUMNS], rows)
+        out += ["", "Supplies in each operating mode"]
+        rows = []
+        for r in o.results.supply_modes:
+            rows.append([r.supply, r.mode] + [
+                format_si(r.values[k].value, r.values[k].kind, system) if k in r.values else "-"
+                for k, _ in SUPPLY_COLUMNS])
+        out += table(["supply", "mode"] + [h for _, h in SUPPLY_COLUMNS], rows)
+        out += ["", "Checks (failures and warnings first)"]
+    problems = checks_lines(o, only_problems=quiet)
+    out += problems
+    assumed = assumed_inputs(o.machine)
+    if assumed and not quiet:
+        out += ["", "Assumed values (not given in the spec)"]
+        out += [f"  {a['where']} = {a['value']:g}{' ' + a['unit'] if 'unit' in a else ''}: {a['basis']}" for a in assumed]
+    out += ["", SHORT] if not quiet else ([SHORT] if problems else [])
+    return "\n".join(out) + "\n"

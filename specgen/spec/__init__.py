@@ -1,0 +1,1 @@
+"""Spec stage: load (YAML with positions) -> validate (schema, units, references) -> model."""

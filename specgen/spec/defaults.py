@@ -1,0 +1,35 @@
+"""Values used when a spec leaves them out. Every one is marked "assumed" in all output.
+
+Motor efficiencies are mid-range typical catalogue figures per construction (from memory, not a
+published source): a spec should always give the motor maker's data instead.
+"""
+
+from __future__ import annotations
+
+# kind: (volumetric, hydro-mechanical, starting)
+MOTOR_EFFICIENCY = {
+    "external_gear": (0.89, 0.85, 0.78),
+    "vane": (0.88, 0.88, 0.80),
+    "orbital": (0.90, 0.85, 0.75),
+    "axial_piston": (0.95, 0.92, 0.88),
+    "radial_piston": (0.96, 0.94, 0.92),
+}
+MOTOR_BASIS = "typical for {kind} motors (from memory); use the maker's data"
+
+PUMP_VOLUMETRIC = 0.92
+PUMP_OVERALL = 0.85
+PUMP_BASIS = "typical for a positive-displacement pump (from memory); use the maker's data"
+
+GEAR_EFFICIENCY = 0.97
+GEAR_BASIS = "typical for one spur or planetary gear stage (from memory)"
+
+OIL_DENSITY = 870.0  # kg/m^3, mineral hydraulic oil at about 15 degC (from memory)
+OIL_BASIS = "typical mineral hydraulic oil (from memory)"
+
+THRESHOLDS = {
+    "pressure_margin_warn": 0.10,
+    "flow_margin_warn": 0.05,
+    "power_margin_warn": 0.10,
+    "breakaway_margin_warn": 0.10,
+    "speed_margin_warn": 0.05,
+}
