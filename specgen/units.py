@@ -125,6 +125,8 @@ def parse(text: object, kind_name: str) -> float:
         return _parse_temperature(text)
     q = _quantity(text)
     ureg = registry()
+    if q.unitless and kind.name not in ("ratio", "angle"):
+        raise UnitProblem(f"'{text}' has no unit; write the {kind.name} with its unit, e.g. '{kind.example}'")
     if kind.name in ("ratio", "angle"):
         if not q.dimensionless:
             raise UnitProblem(f"'{text}' is {_describe_dimension(q)}; expected {kind.name} such as '{kind.example}'")
