@@ -23,22 +23,28 @@ def _margin_status(margin: float, warn: float) -> str:
 
 
 def pressure_margin(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]:
-    """Required inlet pressure against the supply's relief setting, at every driving duty point."""
+    """Required inlet pressure (plus any pressure-line loss) against the supply's relief setting
+    (a compensated pump's compensator setting), at every driving duty point."""
     warn = machine.thresholds.pressure_margin_warn.value
     for r in results.duties:
         if r.direction == "overrunning":
             continue
-        relief = machine.supply(machine.drive(r.drive).supply).relief_setting
-        p_in = r["inlet_pressure"]
+        sup = machine.supply(machine.drive(r.drive).supply)
+        relief = sup.pressure_limit
+        setting = "compensator setting" if sup.compensated else "relief setting"
+        with_line = "supply_pressure_required" in r.values
+        p_in = r["supply_pressure_required"] if with_line else r["inlet_pressure"]
         margin = (relief - p_in) / relief
         status = _margin_status(margin, warn)
         text = {
-            "fail": "needs more than the relief setting allows: the motor cannot give this torque",
-            "warn": f"is within {warn:.0%} of the relief setting: little room for losses and wear",
-            "pass": "leaves enough margin below the relief setting",
+            "fail": f"needs more than the {setting} allows: the motor cannot give this torque",
+            "warn": f"is within {warn:.0%} of the {setting}: little room for losses and wear",
+            "pass": f"leaves enough margin below the {setting}",
         }[status]
+        what = "Inlet pressure plus pressure-line loss" if with_line else "Inlet pressure"
+        against = "compensator" if sup.compensated else "relief"
         yield Check("pressure_margin", "Pressure margin to relief", status, margin, warn, "ratio",
-                    f"Inlet pressure {fmt(p_in, 'pressure')} against relief {fmt(relief, 'pressure')} "
+                    f"{what} {fmt(p_in, 'pressure')} against {against} {fmt(relief, 'pressure')} "
                     f"(margin {margin:.1%}) {text}.", drive=r.drive, duty=r.duty)
 
 
@@ -191,6 +197,10 @@ def prime_mover(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]
 
 CHECKS = [pressure_margin, pressure_ratings, speed_ratings, breakaway, port_pressures, load_holding,
           supply_flow, prime_mover]
+
+from specgen.checks_depth import DEPTH_CHECKS  # noqa: E402  (they reuse this module's status rules)
+
+CHECKS += DEPTH_CHECKS
 
 
 def run_checks(machine: Machine, results: Results) -> Results:

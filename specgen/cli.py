@@ -13,6 +13,7 @@ from pathlib import Path
 
 from specgen import __version__
 from specgen.errors import Location, Problem, SpecError
+from specgen.heap import few_full_collections
 
 EXIT_OK, EXIT_CHECKS, EXIT_INPUT = 0, 1, 2
 
@@ -23,7 +24,10 @@ def spec_paths(args: list[str]) -> list[str]:
     for a in args:
         p = Path(a)
         if p.is_dir() and any(p.glob("*.y*ml")):
-            out += sorted(str(f) for f in p.rglob("*.y*ml") if f.suffix in (".yaml", ".yml"))
+            from specgen.review import is_reviews_file  # review records sit beside specs; they are not specs
+
+            out += sorted(str(f) for f in p.rglob("*.y*ml") if f.suffix in (".yaml", ".yml") and not is_reviews_file(f)
+                          and not f.name.endswith((".parts.yaml", ".parts.yml")))  # motor parts files
         else:
             out.append(a)
     return out
@@ -39,12 +43,56 @@ def _parser() -> argparse.ArgumentParser:
     c.add_argument("--strict", action="store_true", help="count warnings as failures")
     c.add_argument("-q", "--quiet", action="store_true", help="print only the verdict, failures and warnings")
     c.add_argument("-o", "--output", metavar="FILE", help="write the output to FILE instead of standard output")
+    c.add_argument("--require-review", action="store_true",
+                   help="exit 1 unless a recorded review accepts each spec's current content")
+    c.add_argument("--allow-outside-files", action="store_true",
+                   help="let a spec name files (a sizing parts file) outside its own folder tree")
+    _diff_parser(sub)
+    _review_parser(sub)
+    _report_parser(sub)
     s = sub.add_parser("schema", help="print the spec's JSON Schema (for editors)")
     s.add_argument("-o", "--output", metavar="FILE")
     i = sub.add_parser("init", help="write a starter spec")
     i.add_argument("path", nargs="?", default="machine.yaml")
     i.add_argument("--force", action="store_true", help="overwrite an existing file")
     return ap
+
+
+def _diff_parser(sub) -> None:
+    from specgen.diff import FAIL_ON
+    from specgen.present.diff_out import FORMATS
+
+    d = sub.add_parser("diff", help="compare two revisions of a spec: inputs, results and checks")
+    d.add_argument("old", metavar="OLD", help="spec file, or REV:path read from git (e.g. main:specs/loader.yaml)")
+    d.add_argument("new", metavar="NEW", help="spec file, or REV:path read from git")
+    d.add_argument("--format", choices=FORMATS, default="text")
+    d.add_argument("-o", "--output", metavar="FILE", help="write the output to FILE instead of standard output")
+    d.add_argument("--fail-on", choices=FAIL_ON, default="fail",
+                   help="exit 1 when a check got worse and now stands at this status or beyond [fail]")
+
+
+def _review_parser(sub) -> None:
+    from specgen.review import VERDICTS
+
+    r = sub.add_parser("review", help="record a review of a spec's current content beside it")
+    r.add_argument("spec", metavar="SPEC")
+    r.add_argument("--by", required=True, metavar="NAME", help="reviewer's name")
+    r.add_argument("--role", required=True, metavar="ROLE", help="reviewer's role, e.g. 'checking engineer'")
+    r.add_argument("--verdict", required=True, choices=VERDICTS)
+    r.add_argument("--remarks", default="", metavar="TEXT")
+    r.add_argument("--date", metavar="YYYY-MM-DD", help="review date [SOURCE_DATE_EPOCH, else today]")
+
+
+def _report_parser(sub) -> None:
+    r = sub.add_parser("report", help="write the review report: static HTML with charts, traces, checklist and sign-off")
+    r.add_argument("specs", nargs="+", metavar="SPEC", help="spec files or folders of specs")
+    r.add_argument("-o", "--output", metavar="OUTDIR", required=True,
+                   help="folder for the report (index.html; several specs: one subfolder each and an index)")
+    r.add_argument("--pdf", action="store_true", help="also write a paged PDF, report.pdf (needs the 'pdf' extra)")
+    r.add_argument("--date", metavar="YYYY-MM-DD", help="date printed on the report [SOURCE_DATE_EPOCH, else none]")
+    r.add_argument("--strict", action="store_true", help="count warnings as failures")
+    r.add_argument("--allow-outside-files", action="store_true",
+                   help="let a spec name files (a sizing parts file) outside its own folder tree")
 
 
 def _emit(text: str, output: str | None) -> None:
@@ -63,30 +111,88 @@ def verdict_status(outcomes, strict: bool) -> int:
     return EXIT_OK
 
 
-def _evaluate_all(paths: list[str]):
+def _evaluate_all(paths: list[str], allow_outside_files: bool = False):
     from specgen.pipeline import run_file
 
     outcomes, problems = [], []
     for path in paths:
         try:
-            outcomes.append(run_file(path))
+            outcomes.append(run_file(path, allow_outside_files=allow_outside_files))
         except SpecError as exc:
             problems += exc.problems
     return outcomes, problems
 
 
 def cmd_check(args) -> int:
-    outcomes, problems = _evaluate_all(spec_paths(args.specs))
+    outcomes, problems = _evaluate_all(spec_paths(args.specs), args.allow_outside_files)
     if problems:
         raise SpecError(problems)
+    from specgen.review import status
+
+    reviews = [status(o.source.name, o.source) for o in outcomes]
     if args.format == "json":
         from specgen.present import json_out
 
-        _emit(json_out.render(outcomes), args.output)
+        _emit(json_out.render(outcomes, reviews=reviews), args.output)
     else:
         from specgen.present import text
 
-        _emit("\n".join(text.render(o, quiet=args.quiet) for o in outcomes), args.output)
+        _emit("\n".join(text.render(o, quiet=args.quiet, review=r) for o, r in zip(outcomes, reviews)), args.output)
+    code = verdict_status(outcomes, args.strict)
+    if args.require_review:
+        for o, r in zip(outcomes, reviews):
+            if not r.covered:
+                print(f"review required: {o.source.name}: {r.text}", file=sys.stderr)
+                code = max(code, EXIT_CHECKS)
+    return code
+
+
+def cmd_diff(args) -> int:
+    from specgen.diff import compare
+    from specgen.gitsource import read_spec
+    from specgen.pipeline import evaluate
+    from specgen.present.diff_out import render
+
+    sides, problems = [], []
+    for arg in (args.old, args.new):  # both sides read, so every problem is told at once
+        try:
+            sides.append(evaluate(read_spec(arg)))
+        except SpecError as exc:
+            problems += exc.problems
+    if problems:
+        raise SpecError(problems)
+    d = compare(*sides)
+    _emit(render(d, args.format), args.output)
+    return d.exit_status(args.fail_on)
+
+
+def cmd_review(args) -> int:
+    from specgen.pipeline import run_file
+    from specgen.review import append_review, reviews_path
+
+    o = run_file(args.spec)
+    r = append_review(args.spec, o.source, o.machine.revision, args.by, args.role, args.verdict,
+                      args.remarks, args.date)
+    print(f"recorded in {reviews_path(args.spec)}: {r.verdict} by {r.who} on {r.date} "
+          f"for fingerprint {r.short} ({o.machine.title} rev {o.machine.revision})")
+    return EXIT_OK
+
+
+def cmd_report(args) -> int:
+    from specgen.present import report
+    from specgen.present.text import headline
+
+    date = report.report_date(args.date, os.environ.get("SOURCE_DATE_EPOCH"))
+    outcomes, problems = _evaluate_all(spec_paths(args.specs), args.allow_outside_files)
+    if problems:
+        raise SpecError(problems)
+    written = report.write(outcomes, args.output, date=date, pdf=args.pdf)
+    for note in written.notes:
+        print(f"note: {note}", file=sys.stderr)
+    for o in outcomes:
+        print(headline(o))
+    for path in written.files:
+        print(f"wrote {path}")
     return verdict_status(outcomes, args.strict)
 
 
@@ -110,7 +216,8 @@ def cmd_init(args) -> int:
     return EXIT_OK
 
 
-COMMANDS = {"check": cmd_check, "schema": cmd_schema, "init": cmd_init}
+COMMANDS = {"check": cmd_check, "schema": cmd_schema, "init": cmd_init, "diff": cmd_diff, "review": cmd_review,
+            "report": cmd_report}
 
 
 def main(argv: list[str] | None = None) -> int:
@@ -120,7 +227,8 @@ def main(argv: list[str] | None = None) -> int:
         ap.print_help()
         return EXIT_INPUT
     try:
-        return COMMANDS[args.command](args)
+        with few_full_collections():  # specgen/heap.py: a third of a large check's time otherwise
+            return COMMANDS[args.command](args)
     except SpecError as exc:
         for p in exc.problems:
             print(f"error: {p}", file=sys.stderr)

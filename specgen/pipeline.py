@@ -20,15 +20,16 @@ class Outcome:
     results: Results
 
 
-def evaluate(source: Source) -> Outcome:
-    machine = build(source)
+def evaluate(source: Source, allow_outside_files: bool = False) -> Outcome:
+    """``allow_outside_files``: a file the spec names (a parts file) may lie outside its folder tree."""
+    machine = build(source, allow_outside_files=allow_outside_files)
     results = run_checks(machine, resolve(machine))
     return Outcome(source, machine, results)
 
 
-def run_file(path: str | Path) -> Outcome:
+def run_file(path: str | Path, allow_outside_files: bool = False) -> Outcome:
     """Load, validate, compute and check one spec file. Raises SpecError for bad input."""
-    return evaluate(load_file(path))
+    return evaluate(load_file(path), allow_outside_files=allow_outside_files)
 
 
 def run_text(raw: bytes, name: str) -> Outcome:

@@ -50,3 +50,14 @@ def run_cli(*args: str) -> tuple[int, str, str]:
     with redirect_stdout(out), redirect_stderr(err):
         code = main([str(a) for a in args])
     return code, out.getvalue(), err.getvalue()
+
+
+def value_paths(node, prefix: tuple = ()):
+    """Every path to a value in a loaded spec tree (dict keys, list indexes), parents first."""
+    yield prefix
+    if isinstance(node, dict):
+        for k, v in node.items():
+            yield from value_paths(v, prefix + (k,))
+    elif isinstance(node, list):
+        for i, v in enumerate(node):
+            yield from value_paths(v, prefix + (i,))

@@ -30,7 +30,8 @@ def _limit(x: float | None, kind: str, system: str) -> dict | None:
     return {"value": number, "unit": unit}
 
 
-def document(o: Outcome) -> dict:
+def document(o: Outcome, review=None) -> dict:
+    """``review``: the spec's review.ReviewStatus; its as_dict() goes under "review" when given."""
     system = o.machine.display_units
     r = o.results
     return {
@@ -54,6 +55,21 @@ def document(o: Outcome) -> dict:
              "values": {k: _value(v, system) for k, v in s.values.items()}}
             for s in r.supply_modes
         ],
+        "drives": [
+            {"drive": d.drive, "values": {k: _value(v, system) for k, v in d.values.items()},
+             "envelope": [{"displacement": dict(zip(("value", "unit"), convert(e.displacement, "displacement", system))),
+                           "speed": dict(zip(("value", "unit"), convert(e.speed, "speed", system))),
+                           "torque": dict(zip(("value", "unit"), convert(e.torque, "torque", system))),
+                           "speed_capped": e.speed_capped} for e in d.envelope]}
+            for d in r.drives if d.values or d.envelope
+        ],
+        "supplies": [
+            {"supply": s.supply, "worst_power_mode": s.worst_power_mode, "worst_heat_mode": s.worst_heat_mode,
+             "values": {k: _value(v, system) for k, v in s.values.items()}}
+            for s in r.supplies
+        ],
+        "modes": [{"mode": m.mode, "values": {k: _value(v, system) for k, v in m.values.items()}} for m in r.modes],
+        "fluid": {k: _value(v, system) for k, v in r.fluid.items()},
         "checks": [
             {"id": c.id, "title": c.title, "status": c.status,
              "value": _limit(c.value, c.kind, system), "limit": _limit(c.limit, c.kind, system),
@@ -62,11 +78,12 @@ def document(o: Outcome) -> dict:
             for c in r.checks
         ],
         "assumed": assumed_inputs(o.machine),
+        **({"review": review.as_dict()} if review is not None else {}),
         "cautions": [{"title": t, "text": x} for t, x in CAUTIONS],
     }
 
 
-def render(outcomes: list[Outcome]) -> str:
-    docs = [document(o) for o in outcomes]
+def render(outcomes: list[Outcome], reviews: list | None = None) -> str:
+    docs = [document(o, r) for o, r in zip(outcomes, reviews or [None] * len(outcomes))]
     body = docs[0] if len(docs) == 1 else {"specgen": __version__, "output_format": OUTPUT_FORMAT, "specs": docs}
     return json.dumps(body, indent=2, ensure_ascii=False) + "\n"

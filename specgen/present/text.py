@@ -38,9 +38,24 @@ def checks_lines(o: Outcome, only_problems: bool) -> list[str]:
     return [f"{c.status.upper():4}  {c.id:20} {c.where}: {c.message}" for c in checks]
 
 
-def render(o: Outcome, quiet: bool = False) -> str:
+def depth_lines(o: Outcome, system: str) -> list[str]:
+    """Fluid, sizing and variable-motor values, and each mode's heat load, one line each."""
+    r = o.results
+    picked = [("fluid", v) for v in r.fluid.values()]
+    picked += [(f"drive {d.drive}", v) for d in r.drives for v in d.values.values()]
+    picked += [(f"supply {s.supply}", v) for s in r.supplies for k, v in s.values.items() if k.startswith("worst_")]
+    picked += [(f"mode {m.mode}", v) for m in r.modes for v in m.values.values()]
+    if not picked:
+        return []
+    rows = [[where, v.label, format_si(v.value, v.kind, system) + (" (assumed)" if v.assumed else ""), v.note]
+            for where, v in picked]
+    return ["", "Fluid, sizing, variable motors and heat"] + table(["where", "quantity", "value", "note"], rows)
+
+
+def render(o: Outcome, quiet: bool = False, review=None) -> str:
+    """``review``: the spec's review.ReviewStatus, shown under the headline when given."""
     system = o.machine.display_units
-    out = [headline(o)]
+    out = [headline(o)] + ([f"Review: {review.text}"] if review is not None else [])
     if not quiet:
         out += ["", "Drives at each duty point (motor shaft)"]
         rows = []
@@ -55,6 +70,7 @@ def render(o: Outcome, quiet: bool = False) -> str:
                 format_si(r.values[k].value, r.values[k].kind, system) if k in r.values else "-"
                 for k, _ in SUPPLY_COLUMNS])
         out += table(["supply", "mode"] + [h for _, h in SUPPLY_COLUMNS], rows)
+        out += depth_lines(o, system)
         out += ["", "Checks (failures and warnings first)"]
     problems = checks_lines(o, only_problems=quiet)
     out += problems

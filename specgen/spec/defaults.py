@@ -32,4 +32,11 @@ THRESHOLDS = {
     "power_margin_warn": 0.10,
     "breakaway_margin_warn": 0.10,
     "speed_margin_warn": 0.05,
+    "heat_margin_warn": 0.10,
 }
+
+# Mineral hydraulic oil: the typical density above is at 15 degC; an assumed density is carried to
+# the operating temperature with the expansion coefficient in calc/fluid.py.
+OIL_REFERENCE_TEMPERATURE = 288.15  # K
+
+SIZING_SERIES = "R10"  # ISO 3 series proposals come from when the spec names none

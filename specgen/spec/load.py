@@ -1,10 +1,14 @@
 """Load a YAML spec keeping the line and column of every key, refusing duplicate keys.
 
-Only plain YAML data is built (SafeLoader): no tag can construct a Python object.
+Only plain YAML data is built (SafeLoader): no tag can construct a Python object. File size,
+value count (also after alias expansion) and nesting are bounded by MAX_BYTES, MAX_NODES and
+MAX_DEPTH, checked while reading, so a hostile file is refused before it costs time or memory.
+Every message is one printable line: text quoted from the spec has its control characters escaped.
 """
 
 from __future__ import annotations
 
+import os
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -12,9 +16,23 @@ import yaml
 
 from specgen.errors import Location, Problem, SpecError
 
-MAX_BYTES = 5 * 1024 * 1024  # a machine spec is a few kB; far larger is a mistake or an attack
-MAX_NODES = 500_000  # after alias expansion; stops "billion laughs"
-MAX_DEPTH = 64  # the format nests about 6 deep
+# A machine spec is a few kB with about a thousand values and nests about 6 deep. The pure-Python
+# YAML reader needs about 2 s and 80 MB for a 1 MiB file of 100,000 values, so far larger
+# is refused as a mistake or an attack before it can take a CI runner's time or memory.
+MAX_BYTES = 1024 * 1024
+MAX_NODES = 100_000  # values as written, and again after alias expansion ("billion laughs")
+MAX_DEPTH = 64
+
+
+def one_line(text: str) -> str:
+    """Text from a spec made safe for a one-line message: line breaks and control characters
+    (ANSI escapes included) are shown escaped, so a key or value cannot split or recolour it."""
+    return "".join(c if c.isprintable() or c == " " else repr(c)[1:-1] for c in text)
+
+
+def problem(location: Location, path: str, message: str) -> Problem:
+    """A Problem whose path and sentence are each one printable line."""
+    return Problem(location, one_line(path), one_line(message))
 
 
 class MarkedDict(dict):
@@ -55,7 +73,50 @@ class Source:
         return Location(self.name, best[0], best[1])
 
 
-class _Loader(yaml.SafeLoader):
+def _reader_base() -> type:
+    """libyaml's C scanner and parser under PyYAML's Python composer and safe constructor.
+
+    The C scanner reads a 1,000-drive spec several times faster than the pure-Python one (the
+    largest cost of ``check`` on it); composing stays in Python so the depth and size limits
+    below apply as values arrive. Without libyaml, the pure-Python SafeLoader does it all.
+    """
+    try:
+        from yaml.cyaml import CParser
+    except ImportError:
+        return yaml.SafeLoader
+    from yaml.composer import Composer
+    from yaml.constructor import SafeConstructor
+    from yaml.resolver import Resolver
+
+    class _CReader(Composer, CParser, SafeConstructor, Resolver):
+        def __init__(self, stream):
+            CParser.__init__(self, stream)
+            Composer.__init__(self)
+            SafeConstructor.__init__(self)
+            Resolver.__init__(self)
+
+    return _CReader
+
+
+class _Loader(_reader_base()):
+    _depth = 0
+    _nodes = 0
+
+    def compose_node(self, parent, index):
+        # The composer recurses once per level: stop at the depth limit with a position, long
+        # before Python's recursion limit turns a deep file into a crash; count values as they
+        # come so a huge file is refused before its whole tree sits in memory.
+        self._depth += 1
+        self._nodes += 1
+        try:
+            if self._depth > MAX_DEPTH:
+                raise _LoadProblem(self.peek_event().start_mark, f"nesting deeper than {MAX_DEPTH} levels")
+            if self._nodes > MAX_NODES:
+                raise _LoadProblem(self.peek_event().start_mark, f"the spec holds more than {MAX_NODES} values")
+            return super().compose_node(parent, index)
+        finally:
+            self._depth -= 1
+
     def construct_mapping(self, node, deep=False):
         if not isinstance(node, yaml.MappingNode):
             return super().construct_mapping(node, deep)
@@ -99,38 +160,48 @@ def _pos(mark) -> tuple[int, int]:
     return (mark.line + 1, mark.column + 1)
 
 
-def _expanded_size(node, depth: int, memo: dict) -> int:
-    """Count nodes as if aliases were copied out; refuse too deep or too large a tree."""
+def _expanded_size(node, depth: int, memo: dict) -> tuple[int, int]:
+    """Count nodes and levels as if aliases were copied out; refuse too deep or too large a tree.
+
+    Returns (nodes, height). The memo keeps both, so an alias met again deeper down is still
+    measured against the depth limit; a node that contains itself never finishes and is refused.
+    """
     if depth > MAX_DEPTH:
-        raise _LoadProblem(node.start_mark, f"nesting deeper than {MAX_DEPTH} levels")
+        raise _LoadProblem(node.start_mark, f"nesting deeper than {MAX_DEPTH} levels (YAML aliases?)")
     key = id(node)
     if key in memo:
-        return memo[key]
-    size = 1
+        size, height = memo[key]
+        if depth + height > MAX_DEPTH:
+            raise _LoadProblem(node.start_mark, f"nesting deeper than {MAX_DEPTH} levels (YAML aliases?)")
+        return size, height
+    children = ()
     if isinstance(node, yaml.MappingNode):
-        for k, v in node.value:
-            size += _expanded_size(k, depth + 1, memo) + _expanded_size(v, depth + 1, memo)
+        children = [n for pair in node.value for n in pair]
     elif isinstance(node, yaml.SequenceNode):
-        for v in node.value:
-            size += _expanded_size(v, depth + 1, memo)
-    if size > MAX_NODES:
-        raise _LoadProblem(node.start_mark, f"the spec expands to more than {MAX_NODES} values (YAML aliases?)")
-    memo[key] = size
-    return size
+        children = node.value
+    size, height = 1, 0
+    for child in children:
+        s, h = _expanded_size(child, depth + 1, memo)
+        size, height = size + s, max(height, h + 1)
+        if size > MAX_NODES:
+            raise _LoadProblem(node.start_mark, f"the spec expands to more than {MAX_NODES} values (YAML aliases?)")
+    memo[key] = (size, height)
+    return size, height
 
 
 def load_text(raw: bytes, name: str) -> Source:
     """Parse spec bytes. Raises SpecError with a located problem for anything unreadable."""
     where = Location(name)
     if len(raw) > MAX_BYTES:
-        raise SpecError([Problem(where, "", f"file is {len(raw)} bytes; specs are limited to {MAX_BYTES} bytes")])
+        raise SpecError([problem(where, "", _too_big(len(raw)))])
     if b"\x00" in raw:
-        raise SpecError([Problem(where, "", "file is binary, not a YAML text spec")])
+        at = _byte_location(raw, raw.index(b"\x00"), name)
+        raise SpecError([problem(at, "", "file is binary (a zero byte), not a YAML text spec")])
     try:
         text = raw.decode("utf-8-sig")
     except UnicodeDecodeError as exc:
-        line = raw[: exc.start].count(b"\n") + 1
-        raise SpecError([Problem(Location(name, line, 0), "", "file is not UTF-8 text")]) from None
+        at = _byte_location(raw, exc.start, name)
+        raise SpecError([problem(at, "", f"file is not UTF-8 text (byte 0x{raw[exc.start]:02x}); save it as UTF-8")]) from None
     try:
         loader = _Loader(text)
         try:
@@ -141,32 +212,68 @@ def load_text(raw: bytes, name: str) -> Source:
         finally:
             loader.dispose()
     except _LoadProblem as exc:
-        raise SpecError([Problem(Location(name, *_pos(exc.mark)), "", exc.message)]) from None
-    except yaml.MarkedYAMLError as exc:
+        raise SpecError([problem(Location(name, *_pos(exc.mark)), "", exc.message)]) from None
+    except yaml.constructor.ConstructorError as exc:
         mark = exc.problem_mark or exc.context_mark
         loc = Location(name, *_pos(mark)) if mark else where
-        what = exc.problem or exc.context or "invalid YAML"
-        raise SpecError([Problem(loc, "", f"YAML syntax error: {what}")]) from None
+        what = exc.problem or "cannot be read"
+        if "constructor for the tag" in what:
+            tag = what.split("tag", 1)[1].strip(" '").replace("tag:yaml.org,2002:", "!!")
+            what = f"the YAML tag '{tag}' is not allowed; a spec holds only plain keys, text, numbers and lists"
+        raise SpecError([problem(loc, "", what)]) from None
+    except yaml.reader.ReaderError as exc:
+        at = Location(name, text.count("\n", 0, exc.position) + 1, exc.position - text.rfind("\n", 0, exc.position))
+        raise SpecError([problem(at, "", f"control character #x{exc.character:04x} is not allowed in a YAML spec")]) from None
+    except yaml.MarkedYAMLError as exc:
+        what = exc.problem or "invalid YAML"
+        mark = exc.problem_mark or exc.context_mark
+        if "end of stream" in what and exc.context_mark:  # point at what was opened, not at the end
+            mark, what = exc.context_mark, f"{what}: what starts here is never closed"
+        loc = Location(name, *_pos(mark)) if mark else where
+        if "tab" in what:
+            what += "; indent with spaces"
+        if "nesting depth" in what:  # the YAML scanner's own limit, met before ours in deep flow style
+            raise SpecError([problem(loc, "", f"nesting deeper than {MAX_DEPTH} levels")]) from None
+        if exc.context:  # e.g. "while scanning a simple key: could not find expected ':'"
+            what = f"{exc.context}{' ' if what.startswith('but') else ': '}{what}"
+        raise SpecError([problem(loc, "", f"YAML syntax error: {what}")]) from None
     except yaml.YAMLError as exc:
-        raise SpecError([Problem(where, "", f"YAML error: {exc}")]) from None
+        raise SpecError([problem(where, "", f"YAML error: {exc}")]) from None
     except RecursionError:
-        raise SpecError([Problem(where, "", "nesting too deep to read")]) from None
+        raise SpecError([problem(where, "", "nesting too deep to read")]) from None
     if data is None:
-        raise SpecError([Problem(where, "", "file is empty; a spec is a YAML mapping starting with 'format: 1'")])
+        raise SpecError([problem(where, "", "file is empty; a spec is a YAML mapping starting with 'format: 1'")])
     if not isinstance(data, dict):
-        raise SpecError([Problem(Location(name, 1, 1), "", "a spec must be a YAML mapping of keys, not a list or a single value")])
+        raise SpecError([problem(Location(name, 1, 1), "", "a spec must be a YAML mapping of keys, not a list or a single value")])
     return Source(name=name, data=data, raw=raw)
 
 
+def _byte_location(raw: bytes, offset: int, name: str) -> Location:
+    line_start = raw.rfind(b"\n", 0, offset) + 1
+    return Location(name, raw.count(b"\n", 0, offset) + 1, offset - line_start + 1)
+
+
+def _too_big(size: int) -> str:
+    return f"file is {size} bytes; specs are limited to {MAX_BYTES} bytes ({MAX_BYTES // 1024} KiB)"
+
+
 def load_file(path: str | Path) -> Source:
+    """Read and parse one spec file; never reads more than MAX_BYTES + 1 bytes of it."""
     p = Path(path)
     name = str(path)
+    where = Location(name)
     if p.is_dir():
-        raise SpecError([Problem(Location(name), "", "is a folder, not a spec file")])
+        raise SpecError([problem(where, "", "is a folder, not a spec file")])
+    if p.exists() and not p.is_file():  # a FIFO or device would block or never end
+        raise SpecError([problem(where, "", "is not a regular file")])
     try:
-        raw = p.read_bytes()
+        with p.open("rb") as fh:
+            raw = fh.read(MAX_BYTES + 1)
+            if len(raw) > MAX_BYTES:
+                size = os.fstat(fh.fileno()).st_size
+                raise SpecError([problem(where, "", _too_big(max(size, len(raw))))])
     except FileNotFoundError:
-        raise SpecError([Problem(Location(name), "", "no such file")]) from None
+        raise SpecError([problem(where, "", "no such file")]) from None
     except OSError as exc:
-        raise SpecError([Problem(Location(name), "", f"cannot read: {exc.strerror or exc}")]) from None
+        raise SpecError([problem(where, "", f"cannot read: {exc.strerror or exc}")]) from None
     return load_text(raw, name)

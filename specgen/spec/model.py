@@ -1,12 +1,15 @@
 """The machine model: frozen dataclasses holding SI floats, in the order the spec wrote them.
 
 Units: pressure Pa, displacement m^3/rev, flow m^3/s, speed rev/s, torque N*m, power W,
-temperature K, density kg/m^3. A model is built only from a validated spec (see validate.py).
+temperature K, density kg/m^3, force N, length m, velocity m/s, acceleration m/s^2, mass kg,
+inertia kg*m^2, time s, angle rad, kinematic viscosity m^2/s. A model is built only from a
+validated spec (see validate.py and build_depth.py).
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from functools import cached_property
 
 
 @dataclass(frozen=True)
@@ -23,6 +26,23 @@ class Fluid:
     iso_vg: int
     temperature: float
     density: Ratio  # kg/m^3 carried as a Ratio so "assumed" travels with it
+    viscosity_100c: float | None = None  # m^2/s measured at 100 degC; None: typical VI-100 value
+
+
+@dataclass(frozen=True)
+class Line:
+    """A hydraulic line (hose or tube): bore, straight length and fittings as equivalent length."""
+
+    inner_diameter: float  # m
+    length: float  # m
+    equivalent_length: float = 0.0  # m, fittings and bends
+    roughness: float = 0.0  # m, absolute; 0: hydraulically smooth (hose, drawn tube)
+
+
+@dataclass(frozen=True)
+class Lines:
+    pressure: Line | None = None  # valve to motor inlet
+    ret: Line | None = None  # motor outlet to valve or tank ("return" in the spec)
 
 
 @dataclass(frozen=True)
@@ -32,6 +52,8 @@ class Pump:
     delivery: float | None
     volumetric_efficiency: Ratio
     overall_efficiency: Ratio
+    control: str = "fixed"  # "fixed" or "pressure_compensated"
+    compensator_setting: float | None = None  # Pa
 
 
 @dataclass(frozen=True)
@@ -42,6 +64,23 @@ class Supply:
     relief_setting: float
     return_pressure: float
     prime_mover_power: float | None
+    prime_mover_speed: float | None = None  # rev/s
+    drive_ratio: float = 1.0  # pump shaft speed / prime mover speed
+    circuit: str = "parallel"  # "parallel" or "series"
+    surplus_to: str = "working_pressure"  # "working_pressure", "relief" or "open_centre"
+    open_centre_pressure: float | None = None  # Pa
+    suction_line: Line | None = None
+
+    @property
+    def compensated(self) -> bool:
+        return self.pump.control == "pressure_compensated"
+
+    @property
+    def pressure_limit(self) -> float:
+        """Highest pressure the drives can get: the compensator setting, else the relief setting."""
+        if self.compensated and self.pump.compensator_setting is not None:
+            return self.pump.compensator_setting
+        return self.relief_setting
 
 
 @dataclass(frozen=True)
@@ -66,10 +105,15 @@ class Motor:
     starting_efficiency: Ratio
     rating: Rating
     case_drain: bool
+    target_pressure: float | None = None  # Pa, inlet pressure to size the displacement for
 
     @property
     def variable(self) -> bool:
         return self.displacement_min != self.displacement_max
+
+    @property
+    def displacement_given(self) -> bool:
+        return self.displacement_max is not None
 
 
 @dataclass(frozen=True)
@@ -79,13 +123,62 @@ class GearStage:
 
 
 @dataclass(frozen=True)
+class WinchLoad:
+    line_pull: float  # N
+    line_speed: float  # m/s
+    drum_diameter: float  # m
+    rope_diameter: float  # m
+    layer: int  # counted from 1, the first layer on the bare drum
+    model: str = "winch"
+
+
+@dataclass(frozen=True)
+class WheelLoad:
+    vehicle_mass: float  # kg
+    rolling_resistance: float  # coefficient, dimensionless
+    grade: float  # rad, positive uphill
+    rolling_radius: float  # m (for a track: the sprocket pitch radius)
+    driven_wheels: int
+    travel_speed: float  # m/s
+    acceleration: float = 0.0  # m/s^2
+    grade_text: str = ""  # as written ("8 %" or "4 deg"), for the trace
+    model: str = "wheel"
+
+
+@dataclass(frozen=True)
+class BeltLoad:
+    belt_pull: float  # N, effective pull (tight side minus slack side)
+    pulley_diameter: float  # m
+    belt_speed: float  # m/s
+    model: str = "belt"
+
+
+@dataclass(frozen=True)
+class SpeedSquaredLoad:
+    reference_torque: float  # N*m
+    reference_speed: float  # rev/s
+    speed: float  # rev/s
+    model: str = "speed_squared"
+
+
+@dataclass(frozen=True)
+class Inertia:
+    load_inertia: float  # kg*m^2 at the load shaft
+    ramp_time: float  # s, from rest to the duty speed (overrunning: from the duty speed to rest)
+    motor_inertia: float = 0.0  # kg*m^2, motor rotor and fast side of the gear stage
+
+
+@dataclass(frozen=True)
 class DutyPoint:
     id: str
     title: str
-    torque: float
-    speed: float
+    torque: float | None  # N*m at the load shaft, when given directly
+    speed: float | None  # rev/s at the load shaft, when given directly
     direction: str  # "driving" or "overrunning"
     starting_torque: float | None
+    load: WinchLoad | WheelLoad | BeltLoad | SpeedSquaredLoad | None = None
+    inertia: Inertia | None = None
+    displacement: float | None = None  # m^3/rev a variable motor is set to at this duty point
 
 
 @dataclass(frozen=True)
@@ -100,6 +193,8 @@ class Drive:
     load_holding: str | None
     duty_points: tuple[DutyPoint, ...]
     notes: str = ""
+    lines: Lines | None = None
+    available_flow: float | None = None  # m^3/s the valve section gives at most; None: pump delivery
 
     def duty(self, duty_id: str) -> DutyPoint:
         return next(d for d in self.duty_points if d.id == duty_id)
@@ -119,6 +214,21 @@ class Thresholds:
     power_margin_warn: Ratio = Ratio(0.10)
     breakaway_margin_warn: Ratio = Ratio(0.10)
     speed_margin_warn: Ratio = Ratio(0.05)
+    heat_margin_warn: Ratio = Ratio(0.10)
+
+
+@dataclass(frozen=True)
+class Sizing:
+    """Where proposed displacements come from: an ISO 3 series, or a parts file's stocked sizes."""
+
+    series: str = "R10"
+    stock: dict | None = None  # motor kind -> tuple of stocked displacements (m^3/rev), sorted
+    parts_file: str = ""  # as written in the spec
+
+
+@dataclass(frozen=True)
+class Cooler:
+    capacity: float  # W of heat the oil cooler rejects at the operating temperature
 
 
 @dataclass(frozen=True)
@@ -135,9 +245,29 @@ class Machine:
     drives: tuple[Drive, ...] = ()
     modes: tuple[Mode, ...] = ()
     thresholds: Thresholds = Thresholds()
+    sizing: Sizing = Sizing()
+    cooler: Cooler | None = None
+
+    # Indexes by id, built on first use: the checks look drives and supplies up inside loops over
+    # every duty point, and a scan each time would make a 1,000-drive spec quadratic.
+    @cached_property
+    def _supplies_by_id(self) -> dict[str, Supply]:
+        return {s.id: s for s in self.supplies}
+
+    @cached_property
+    def _drives_by_id(self) -> dict[str, Drive]:
+        return {d.id: d for d in self.drives}
+
+    @cached_property
+    def _drive_positions(self) -> dict[str, int]:
+        return {d.id: i for i, d in enumerate(self.drives)}
+
+    def drive_position(self, drive_id: str) -> int:
+        """Where the drive stands in the spec's order of drives (0 first)."""
+        return self._drive_positions[drive_id]
 
     def supply(self, supply_id: str) -> Supply:
-        return next(s for s in self.supplies if s.id == supply_id)
+        return self._supplies_by_id[supply_id]
 
     def drive(self, drive_id: str) -> Drive:
-        return next(d for d in self.drives if d.id == drive_id)
+        return self._drives_by_id[drive_id]

@@ -1,0 +1,115 @@
+"""Load-shaft torque and speed of a duty point, traced, from a load model or as entered.
+
+Every load model's inputs appear in the trace of the load torque and speed it computes.
+Torques are returned as magnitudes: a negative model torque (downhill, regenerating belt) has
+already made the duty point overrunning during validation, and the note says so.
+"""
+
+from __future__ import annotations
+
+import math
+
+from specgen.calc import loads
+from specgen.spec.model import BeltLoad, DutyPoint, SpeedSquaredLoad, WheelLoad, WinchLoad
+from specgen.trace import Input, Value, given
+
+SRC_WINCH = "winch drum torque and rope speed on the working layer (hoisting textbook)"
+SRC_WHEEL = "tractive force on a grade with rolling resistance (vehicle dynamics textbook)"
+SRC_WHEEL_SHAFT = "ground force times rolling radius, shared by the driven wheels; rolling without slip"
+SRC_BELT = "conveyor drive pulley: effective belt pull times pulley radius (conveyor textbook)"
+SRC_FAN = "fan and pump affinity laws: torque follows the square of speed"
+
+_OVERRUN_NOTE = "negative: the load drives the motor (overrunning); its magnitude is used"
+
+
+def load_values(duty: DutyPoint) -> list[Value]:
+    """Values ending with 'load_torque' (N*m) and 'load_speed' (rev/s) for this duty point."""
+    m = duty.load
+    if m is None:
+        return [given("load_torque", "Load torque", "T_L", duty.torque, "torque"),
+                given("load_speed", "Load speed", "n_L", duty.speed, "speed")]
+    return _MODELS[type(m)](m)
+
+
+def _winch(w: WinchLoad) -> list[Value]:
+    f = Input("F", "line pull", w.line_pull, "force")
+    dd = Input("d_drum", "drum diameter", w.drum_diameter, "length")
+    dr = Input("d_rope", "rope diameter", w.rope_diameter, "length")
+    layer = Input("layer", "rope layer (1 = first on the bare drum)", w.layer, "number")
+    v = Input("v", "line speed", w.line_speed, "velocity")
+    d_eff = loads.winch_effective_diameter(w.drum_diameter, w.rope_diameter, w.layer)
+    return [
+        Value("rope_pitch_diameter", "Rope pitch diameter on the working layer", "d_eff", d_eff, "length",
+              "d_eff = d_drum + (2*layer - 1)*d_rope", "drum diameter plus the rope layers, to the rope centreline",
+              (dd, dr, layer), SRC_WINCH),
+        Value("load_torque", "Drum torque", "T_L",
+              loads.winch_drum_torque(w.line_pull, w.drum_diameter, w.rope_diameter, w.layer), "torque",
+              "T_L = F * (d_drum/2 + (layer - 0.5)*d_rope)", "line pull times the radius to the rope centreline",
+              (f, dd, dr, layer), SRC_WINCH),
+        Value("load_speed", "Drum speed", "n_L",
+              loads.winch_drum_speed(w.line_speed, w.drum_diameter, w.rope_diameter, w.layer), "speed",
+              "n_L = v / (pi * d_eff)", "line speed over the rope length one drum turn takes up",
+              (v, Input("d_eff", "rope pitch diameter", d_eff, "length")), SRC_WINCH),
+    ]
+
+
+def _wheel(w: WheelLoad) -> list[Value]:
+    out = []
+    if w.grade_text.strip().endswith("%"):
+        percent = math.tan(w.grade) * 100.0
+        out.append(Value("grade_angle", "Grade angle", "theta", w.grade, "angle", "theta = atan(grade / 100)",
+                         "slope angle of a grade given as rise over run in percent",
+                         (Input("grade", "grade, percent / 100", percent / 100.0, "ratio"),), "trigonometry of a slope"))
+    else:
+        out.append(given("grade_angle", "Grade angle", "theta", w.grade, "angle"))
+    m = Input("m", "vehicle mass", w.vehicle_mass, "mass")
+    force = loads.tractive_force(w.vehicle_mass, w.rolling_resistance, w.grade, w.acceleration)
+    out.append(Value("tractive_force", "Tractive force", "F", force, "force",
+                     "F = m*g*(c_rr*cos(theta) + sin(theta)) + m*a",
+                     "rolling resistance and the climb against gravity, plus the force to accelerate",
+                     (m, Input("g", "standard gravity", loads.STANDARD_GRAVITY, "acceleration"),
+                      Input("c_rr", "rolling resistance coefficient", w.rolling_resistance, "ratio"),
+                      Input("theta", "grade angle", w.grade, "angle"),
+                      Input("a", "acceleration", w.acceleration, "acceleration")), SRC_WHEEL,
+                     note=_OVERRUN_NOTE if force < 0 else ""))
+    shaft = loads.wheel_load(force, w.rolling_radius, w.driven_wheels, w.travel_speed)
+    r = Input("r", "rolling radius (track: sprocket pitch radius)", w.rolling_radius, "length")
+    out += [
+        Value("load_torque", "Wheel (sprocket) torque", "T_L", abs(shaft.torque), "torque", "T_L = |F| * r / n_w",
+              "tractive force times rolling radius, shared by the driven wheels",
+              (Input("F", "tractive force", force, "force"), r,
+               Input("n_w", "driven wheels", w.driven_wheels, "number")), SRC_WHEEL_SHAFT,
+              note=_OVERRUN_NOTE if force < 0 else ""),
+        Value("load_speed", "Wheel (sprocket) speed", "n_L", shaft.speed, "speed", "n_L = v / (2*pi*r)",
+              "ground speed over the rolling circumference", (Input("v", "travel speed", w.travel_speed, "velocity"), r),
+              SRC_WHEEL_SHAFT),
+    ]
+    return out
+
+
+def _belt(b: BeltLoad) -> list[Value]:
+    shaft = loads.belt_load(b.belt_pull, b.pulley_diameter, b.belt_speed)
+    d = Input("d", "pulley diameter", b.pulley_diameter, "length")
+    return [
+        Value("load_torque", "Pulley torque", "T_L", abs(shaft.torque), "torque", "T_L = |F_belt| * d / 2",
+              "effective belt pull times pulley radius", (Input("F_belt", "effective belt pull", b.belt_pull, "force"), d),
+              SRC_BELT, note=_OVERRUN_NOTE if b.belt_pull < 0 else ""),
+        Value("load_speed", "Pulley speed", "n_L", shaft.speed, "speed", "n_L = v / (pi * d)",
+              "belt speed over the pulley circumference", (Input("v", "belt speed", b.belt_speed, "velocity"), d),
+              SRC_BELT),
+    ]
+
+
+def _speed_squared(s: SpeedSquaredLoad) -> list[Value]:
+    n = Input("n_L", "speed", s.speed, "speed")
+    return [
+        Value("load_torque", "Load torque (speed squared)", "T_L",
+              loads.speed_squared_torque(s.reference_torque, s.reference_speed, s.speed), "torque",
+              "T_L = T_ref * (n_L / n_ref)^2", "reference torque scaled by the square of the speed ratio",
+              (Input("T_ref", "reference torque", s.reference_torque, "torque"),
+               Input("n_ref", "reference speed", s.reference_speed, "speed"), n), SRC_FAN),
+        given("load_speed", "Load speed", "n_L", s.speed, "speed"),
+    ]
+
+
+_MODELS = {WinchLoad: _winch, WheelLoad: _wheel, BeltLoad: _belt, SpeedSquaredLoad: _speed_squared}

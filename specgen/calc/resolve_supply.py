@@ -1,0 +1,251 @@
+"""Supplies: the pump's speed and full delivery, then per mode the circuit (parallel or series),
+pump pressure and input power, prime mover torque, makeup flow for overrunning drives and the heat
+load; per mode the heat all supplies put into the reservoir; per supply its worst modes.
+
+Circuits:
+  parallel  flows add; the supply pressure is the highest pressure any running drive needs
+            (its inlet pressure plus its pressure-line loss).
+  series    the running drives in the spec's order; the same line flow passes through each, so the
+            line carries the largest demand and a drive needing less is taken as bypassed at its
+            valve for the difference. Pressures add from the end: the last outlet sits at the
+            return pressure, each inlet is its outlet plus its differential, each outlet is the
+            next inlet plus the lines between. An overrunning drive adds no differential (its
+            counterbalance valve holds the load), only its line losses.
+
+Pure: SI floats in, traced Values out.
+"""
+
+from __future__ import annotations
+
+import math
+
+from specgen.calc import heat, supply as pump
+from specgen.calc.record import Record, eff
+from specgen.calc.resolve_lines import line_values
+from specgen.results import Contribution, ModeResult, SupplyModeResult, SupplyResult
+from specgen.spec.model import Machine, Supply
+from specgen.trace import Input, Value, given
+
+SRC_PUMP = "positive-displacement pump relations (fluid-power textbook)"
+SRC_HEAT = "energy balance (first law) on the circuit: heat = power in - useful shaft power"
+SRC_PARALLEL = "parallel circuit: flows add, the highest pressure demand sets the supply pressure"
+SRC_SERIES = "series circuit: one flow through every motor, pressure differentials add"
+
+
+def supply_base(sup: Supply, fluid: dict) -> dict[str, Value]:
+    """Mode-independent values: prime mover and pump shaft speed, full delivery, suction line."""
+    rec = Record()
+    p = sup.pump
+    n_p = p.shaft_speed
+    if sup.prime_mover_speed is not None:
+        n_pm = rec.put(given("prime_mover_speed", "Prime mover speed", "n_pm", sup.prime_mover_speed, "speed"))
+        if n_p is None:
+            n_p = rec.put(Value("pump_shaft_speed", "Pump shaft speed", "n_p", n_pm * sup.drive_ratio, "speed",
+                                "n_p = n_pm * i_pd", "prime mover speed times the pump drive ratio",
+                                (Input("n_pm", "prime mover speed", n_pm, "speed"),
+                                 Input("i_pd", "pump drive ratio", sup.drive_ratio, "ratio")), SRC_PUMP))
+    if n_p is not None and "pump_shaft_speed" not in rec.values:
+        rec.put(given("pump_shaft_speed", "Pump shaft speed", "n_p", n_p, "speed"))
+    if p.delivery is not None:
+        rec.put(given("pump_delivery", "Pump delivery", "q_p", p.delivery, "flow"))
+    else:
+        rec.put(Value("pump_delivery", "Pump delivery" + (" at full stroke" if sup.compensated else ""), "q_p",
+                      pump.delivery(p.displacement, n_p, p.volumetric_efficiency.value), "flow",
+                      "q_p = Vp * n_p * eta_v,p", "pump displacement times shaft speed times volumetric efficiency",
+                      (Input("Vp", "pump displacement", p.displacement, "displacement"),
+                       Input("n_p", "pump shaft speed", n_p, "speed"),
+                       eff("eta_v,p", "pump volumetric efficiency", p.volumetric_efficiency)), SRC_PUMP))
+    if sup.suction_line is not None and "kinematic_viscosity" in fluid:
+        # the pump draws its geometric flow; leakage returns inside it
+        q_s = p.displacement * n_p if p.displacement is not None else rec.get("pump_delivery")
+        for value in line_values("suction", sup.suction_line, q_s, fluid["kinematic_viscosity"].value,
+                                 fluid["density"].value):
+            rec.put(value)
+    return rec.values
+
+
+def resolve_supply_mode(machine: Machine, sup: Supply, mode, duties: dict, base: dict) -> SupplyModeResult | None:
+    # The mode's own drives, in the mode's order (as the spine did): a walk over the whole machine
+    # for every mode and supply would make a large spec quadratic.
+    running = [(d, u) for d, u in mode.running if machine.drive(d).supply == sup.id]
+    if not running:
+        return None
+    if sup.circuit != "parallel":  # in series the spec's order of drives is the order along the line
+        running.sort(key=lambda x: machine.drive_position(x[0]))
+    contributions = tuple(Contribution(d, u, duties[(d, u)]["flow_demand"]) for d, u in running)
+    rec = Record()
+    flows = tuple(Input(f"q[{c.drive}]", f"{c.drive} at {c.duty}", c.flow, "flow") for c in contributions)
+    if sup.circuit == "series":
+        demand = rec.put(Value("flow_demand", "Series line flow", "q_line", max(c.flow for c in contributions), "flow",
+                               "q_line = max(q_i)", "the largest demand of the drives in series; a drive needing less "
+                               "is bypassed at its valve for the difference", flows, SRC_SERIES))
+        p_work = _series_pressures(rec, sup, running, duties)
+    else:
+        demand = rec.put(Value("flow_demand", "Summed flow demand", "q_sum", sum(c.flow for c in contributions), "flow",
+                               "q_sum = sum(q_i)", "drives in parallel: their flows add", flows,
+                               "continuity of flow in a parallel circuit"))
+        needs = [(d, u, duties[(d, u)].values.get("supply_pressure_required") or duties[(d, u)].values["inlet_pressure"])
+                 for d, u in running]
+        p_work = rec.put(Value("working_pressure", "Supply working pressure", "p_s", max(x[2].value for x in needs),
+                               "pressure", "p_s = max(p_supply,i)",
+                               "the highest pressure a running drive needs at the supply (inlet plus pressure-line loss)",
+                               tuple(Input(f"p[{d}]", f"{d} at {u}", v.value, "pressure") for d, u, v in needs),
+                               SRC_PARALLEL))
+    q_pump = rec.put(base["pump_delivery"])
+    rec.put(Value("flow_surplus", "Surplus (+) or shortfall (-)", "dq", q_pump - demand, "flow",
+                  "dq = q_p - q_sum", "pump delivery less the flow the drives take",
+                  (Input("q_p", "pump delivery", q_pump, "flow"), Input("q_sum", "flow demand", demand, "flow")), ""))
+    _makeup(rec, running, duties, q_pump)
+    _pump_and_heat(rec, sup, running, duties, q_pump, demand, p_work, base)
+    return SupplyModeResult(sup.id, mode.id, contributions, rec.values)
+
+
+def _series_pressures(rec: Record, sup: Supply, running, duties) -> float:
+    p = sup.return_pressure
+    terms = [Input("p_return", "return pressure", p, "pressure")]
+    for d, u in reversed(running):
+        r = duties[(d, u)].values
+        ret = r["return_line_loss"].value if "return_line_loss" in r else 0.0
+        press = r["pressure_line_loss"].value if "pressure_line_loss" in r else 0.0
+        dp = 0.0 if duties[(d, u)].direction == "overrunning" else r["pressure_differential"].value
+        outlet = p + ret
+        inlet = outlet + dp
+        rec.put(Value(f"outlet_pressure[{d}]", f"Outlet pressure of {d} in series", "p_out", outlet, "pressure",
+                      "p_out = p_next + dp_return_line", "the next drive's inlet (or the return) plus the line between",
+                      (Input("p_next", "pressure downstream", p, "pressure"),
+                       Input("dp_return_line", "return-line loss", ret, "pressure")), SRC_SERIES))
+        rec.put(Value(f"inlet_pressure[{d}]", f"Inlet pressure of {d} in series", "p_in", inlet, "pressure",
+                      "p_in = p_out + dp", "outlet pressure plus the motor's differential",
+                      (Input("p_out", "outlet pressure", outlet, "pressure"),
+                       Input("dp", "pressure differential", dp, "pressure")), SRC_SERIES))
+        p = inlet + press
+        terms += [Input(f"dp[{d}]", f"{d} at {u}: differential", dp, "pressure"),
+                  Input(f"dp_lines[{d}]", f"{d}: line losses", ret + press, "pressure")]
+    return rec.put(Value("working_pressure", "Supply working pressure", "p_s", p, "pressure",
+                         "p_s = p_return + sum(dp_i + dp_lines,i)",
+                         "return pressure plus every differential and line loss in the series", tuple(terms),
+                         SRC_SERIES))
+
+
+def _makeup(rec: Record, running, duties, q_pump: float) -> None:
+    """Flow left for each overrunning drive once the others have taken theirs."""
+    for d, u in running:
+        if duties[(d, u)].direction != "overrunning":
+            continue
+        others = [(od, ou) for od, ou in running if od != d]
+        taken = sum(duties[k]["flow_demand"] for k in others)
+        rec.put(Value(f"makeup_available[{d}]", f"Flow left to fill {d}'s inlet", "q_makeup", q_pump - taken, "flow",
+                      "q_makeup = q_p - sum(q_other)", "pump delivery less what the other running drives take",
+                      (Input("q_p", "pump delivery", q_pump, "flow"),)
+                      + tuple(Input(f"q[{od}]", f"{od} at {ou}", duties[(od, ou)]["flow_demand"], "flow")
+                              for od, ou in others), "continuity of flow"))
+
+
+def _pump_and_heat(rec: Record, sup: Supply, running, duties, q_pump, demand, p_work, base) -> None:
+    p = sup.pump
+    eta_t = p.overall_efficiency
+    q_in, ps_in = Input("q_p", "pump delivery", q_pump, "flow"), Input("p_s", "working pressure", p_work, "pressure")
+    taken = min(demand, q_pump)  # in a shortfall the drives share what there is and slow down
+    share = taken / demand if demand > 0 else 1.0
+    driving = [duties[k] for k in running if duties[k].direction != "overrunning"]
+    braking = [duties[k] for k in running if duties[k].direction == "overrunning"]
+    if sup.compensated:
+        p_pump = rec.put(given("pump_pressure", "Pump outlet pressure (compensator setting)", "p_pump",
+                               p.compensator_setting, "pressure"))
+        q_del = rec.put(Value("pump_delivered_flow", "Flow the pump delivers", "q_del", taken, "flow",
+                              "q_del = min(q_sum, q_p)", "a compensated pump strokes back to the flow the drives take",
+                              (Input("q_sum", "flow demand", demand, "flow"), q_in), SRC_PUMP))
+    else:
+        dump, why = {"working_pressure": (p_work, "bypassed at the working pressure"),
+                     "relief": (sup.relief_setting, "over the relief valve"),
+                     "open_centre": (sup.open_centre_pressure, "through the open centre")}[sup.surplus_to]
+        surplus = q_pump > demand
+        p_pump = rec.put(Value("pump_pressure", "Pump outlet pressure", "p_pump",
+                               max(p_work, dump) if surplus else p_work, "pressure",
+                               "p_pump = max(p_s, p_dump)" if surplus else "p_pump = p_s",
+                               f"surplus flow leaves {why}; the pump outlet sits at the higher of that and the "
+                               "drives' pressure" if surplus else "no surplus flow: the drives set the pressure",
+                               (ps_in, Input("p_dump", "pressure the surplus is dumped at", dump, "pressure")), SRC_PUMP))
+        q_del = q_pump
+    shaft = sum(r["shaft_power"] for r in driving) * share
+    shaft = min(shaft, taken * p_pump)  # a drive that needs more than the pump pressure cannot deliver it
+    if sup.compensated:
+        hb = heat.compensated_pump_heat(taken, p_pump, eta_t.value, shaft)
+        formula, words = "P_in = q_del * p_comp / eta_t", "delivered flow at the compensator setting, over overall efficiency"
+        ins = (Input("q_del", "delivered flow", q_del, "flow"), Input("p_comp", "compensator setting", p_pump, "pressure"))
+    else:
+        hb = heat.fixed_pump_heat(q_pump, taken, p_work, p_pump if q_pump > demand else p_work, eta_t.value, shaft)
+        formula, words = "P_in = q_p * p_pump / eta_t", "full delivery at the pump outlet pressure, over overall efficiency"
+        ins = (q_in, Input("p_pump", "pump outlet pressure", p_pump, "pressure"))
+    p_in = rec.put(Value("pump_input_power", "Pump input power", "P_in", hb.pump_input, "power", formula, words,
+                         ins + (eff("eta_t", "pump overall efficiency", eta_t),), SRC_PUMP,
+                         note="surplus flow is taken as returned at the working pressure"
+                         if not sup.compensated and sup.surplus_to == "working_pressure" else ""))
+    pin_in = Input("P_in", "pump input power", p_in, "power")
+    if "pump_shaft_speed" in base:
+        n_p = base["pump_shaft_speed"].value
+        rec.put(Value("pump_input_torque", "Pump input torque", "T_p", p_in / (2 * math.pi * n_p), "torque",
+                      "T_p = P_in / (2*pi*n_p)", "input power over the pump's angular speed",
+                      (pin_in, Input("n_p", "pump shaft speed", n_p, "speed")), SRC_PUMP))
+    if sup.prime_mover_power is not None:
+        rec.put(given("prime_mover_power", "Prime mover power available", "P_pm", sup.prime_mover_power, "power"))
+    if sup.prime_mover_speed is not None:
+        rec.put(Value("prime_mover_torque", "Torque taken from the prime mover", "T_pm",
+                      p_in / (2 * math.pi * sup.prime_mover_speed), "torque", "T_pm = P_in / (2*pi*n_pm)",
+                      "pump input power at the prime mover's speed (losses of a pump drive gearbox neglected)",
+                      (pin_in, Input("n_pm", "prime mover speed", sup.prime_mover_speed, "speed")), SRC_PUMP))
+    _heat(rec, hb, shaft, braking, share)
+
+
+def _heat(rec: Record, hb, shaft: float, braking, share: float) -> None:
+    p_brake = sum(r["shaft_power"] for r in braking) * share
+    rec.put(Value("useful_shaft_power", "Useful shaft power of the driving motors", "P_shaft", shaft, "power",
+                  "P_shaft = sum(P_i)", "shaft power of every driving motor running", (), SRC_HEAT))
+    rec.put(Value("heat_pump_loss", "Heat from pump losses", "Q_pump", hb.pump_loss, "power",
+                  "Q_pump = P_in - P_hydraulic", "pump input less its hydraulic output", (), SRC_HEAT))
+    if hb.surplus_loss:
+        rec.put(Value("heat_surplus_loss", "Heat from surplus flow", "Q_surplus", hb.surplus_loss, "power",
+                      "Q_surplus = (q_p - q_sum) * p_pump", "surplus flow dumped at the pump outlet pressure", (),
+                      SRC_HEAT))
+    rec.put(Value("heat_drive_loss", "Heat in valves, lines and motors", "Q_drives", hb.drive_loss, "power",
+                  "Q_drives = q_sum * p_pump - P_shaft",
+                  "hydraulic power sent to the drives less their useful shaft power", (), SRC_HEAT))
+    if braking:
+        rec.put(Value("braking_power", "Power absorbed from overrunning loads", "P_brake", p_brake, "power",
+                      "P_brake = sum(P_overrunning)", "the lowering or downhill load's power, turned to heat at the "
+                      "load-holding valve", (), SRC_HEAT))
+    rec.put(Value("heat_load", "Heat load (cooling duty)", "Q", hb.total + p_brake, "power",
+                  "Q = P_in - P_shaft + P_brake", "power in that does no useful work, plus power absorbed from the load",
+                  (Input("P_in", "pump input power", hb.pump_input, "power"),
+                   Input("P_shaft", "useful shaft power", shaft, "power"),
+                   Input("P_brake", "absorbed braking power", p_brake, "power")), SRC_HEAT))
+
+
+def mode_heat(mode, supply_modes) -> ModeResult | None:
+    """Heat all supplies running in ``mode`` put into the one reservoir."""
+    parts = [r for r in supply_modes if r.mode == mode.id]
+    if not parts:
+        return None
+    total = sum(r["heat_load"] for r in parts)
+    value = Value("heat_load", "Heat load of the machine (cooling duty)", "Q_machine", total, "power",
+                  "Q_machine = sum(Q_supply)", "every supply running in the mode returns to the one reservoir",
+                  tuple(Input(f"Q[{r.supply}]", f"supply {r.supply}", r["heat_load"], "power") for r in parts), SRC_HEAT)
+    return ModeResult(mode.id, {"heat_load": value})
+
+
+def supply_summary(sup: Supply, base: dict, supply_modes) -> SupplyResult:
+    """The supply's mode-independent values and, across its modes, the worst for power and heat."""
+    rec = Record()
+    rec.values.update(base)
+    mine = [r for r in supply_modes if r.supply == sup.id]
+    worst = {}
+    for key, label in (("pump_input_power", "Highest pump input power"), ("heat_load", "Highest heat load")):
+        if not mine:
+            continue
+        top = max(mine, key=lambda r: r[key])
+        worst[key] = top.mode
+        rec.put(Value(f"worst_{key}", label, "max", top[key], "power", f"max over modes of {key}",
+                      f"the worst mode is {top.mode}",
+                      tuple(Input(f"[{r.mode}]", f"mode {r.mode}", r[key], "power") for r in mine), "",
+                      note=f"mode {top.mode}"))
+    return SupplyResult(sup.id, rec.values, worst.get("pump_input_power"), worst.get("heat_load"))

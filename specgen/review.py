@@ -1,0 +1,258 @@
+"""Review records bound to a spec's content: who reviewed which content, when, and the verdict.
+
+The record file sits beside the spec: ``loader.yaml`` -> ``loader.reviews.yaml`` (``reviews_path``).
+It is YAML, written by ``specgen review`` and meant to be committed with the spec::
+
+    review_format: 1
+    spec: loader.yaml
+    reviews:
+    - name: A. Checker
+      role: checking engineer
+      date: '2025-03-14'
+      verdict: approved
+      fingerprint: 3f1c...e9    # content fingerprint, 64 hex digits
+      machine_revision: C
+      remarks: ''
+
+Records are only ever appended: the file is rewritten atomically as its old bytes unchanged plus
+the new record, and the result is read back to prove every earlier record survived.
+
+Content fingerprint (``content_fingerprint``), review_format 1: the sha256, in hex, of the UTF-8
+bytes of ``json.dumps(N, sort_keys=True, separators=(",", ":"), ensure_ascii=False)`` where N is
+the loaded spec with every quantity field converted to its SI float and every plain number made a
+float, both rounded to 12 significant figures (``spec.content.normalised``). Comments, layout, key
+order, quoting and unit spelling of an equal value ("250 bar", "25 MPa", "25000 kPa") do not
+change it; any changed value, text, added or removed key does. "3626 psi" is 250.003 bar: a
+different value, so a different fingerprint, which errs on the side of asking for a new review.
+
+This records a review; it is not a signature.
+"""
+
+from __future__ import annotations
+
+import hashlib
+import json
+import os
+from dataclasses import asdict, dataclass
+from datetime import date, datetime, timezone
+from pathlib import Path
+
+import yaml
+
+from specgen.errors import Location, Problem, SpecError
+from specgen.output import write_atomic
+from specgen.spec.content import normalised
+from specgen.spec.load import Source, load_text
+
+REVIEWS_SUFFIX = ".reviews.yaml"
+REVIEW_FORMAT = 1
+VERDICTS = ("approved", "approved_with_remarks", "rejected")
+ACCEPTING = ("approved", "approved_with_remarks")
+FIELDS = ("name", "role", "date", "verdict", "fingerprint", "machine_revision", "remarks")
+MAX_NAME = 200
+MAX_REMARKS = 5000
+
+
+@dataclass(frozen=True)
+class Review:
+    name: str
+    role: str
+    date: str  # ISO 8601 calendar date, e.g. 2025-03-14
+    verdict: str
+    fingerprint: str
+    machine_revision: str = ""
+    remarks: str = ""
+
+    @property
+    def short(self) -> str:
+        return self.fingerprint[:12]
+
+    @property
+    def who(self) -> str:
+        return f"{self.name} ({self.role})"
+
+
+def reviews_path(spec_path: str | Path) -> Path:
+    """``specs/loader.yaml`` -> ``specs/loader.reviews.yaml`` (same folder, same stem)."""
+    p = Path(spec_path)
+    return p.with_name(p.stem + REVIEWS_SUFFIX)
+
+
+def is_reviews_file(path: str | Path) -> bool:
+    return str(path).endswith(REVIEWS_SUFFIX)
+
+
+def content_fingerprint(data: dict) -> str:
+    """sha256 hex of the spec's normalised content (see the module text for the exact rule)."""
+    text = json.dumps(normalised(data), sort_keys=True, separators=(",", ":"), ensure_ascii=False)
+    return hashlib.sha256(text.encode("utf-8")).hexdigest()
+
+
+def review_date(given: str | None = None, environ=os.environ) -> str:
+    """The date a review is recorded under: ``given`` (ISO date), else SOURCE_DATE_EPOCH (UTC), else today."""
+    if given:
+        try:
+            return date.fromisoformat(given).isoformat()
+        except ValueError:
+            raise SpecError([Problem(Location("--date"), "", f"'{given}' is not a date such as 2025-03-14")]) from None
+    epoch = environ.get("SOURCE_DATE_EPOCH")
+    if epoch:
+        try:
+            return datetime.fromtimestamp(int(epoch), tz=timezone.utc).date().isoformat()
+        except (ValueError, OverflowError, OSError):
+            raise SpecError([Problem(Location("SOURCE_DATE_EPOCH"), "", f"'{epoch}' is not a count of seconds")]) from None
+    return date.today().isoformat()
+
+
+def _parse(source: Source) -> list[Review]:
+    d = source.data
+    problems = []
+
+    def bad(path: tuple, message: str) -> None:
+        problems.append(Problem(source.location(path), ".".join(map(str, path)), message))
+
+    if d.get("review_format") != REVIEW_FORMAT:
+        bad(("review_format",), f"this version of specgen reads review_format {REVIEW_FORMAT}")
+    entries = d.get("reviews")
+    if not isinstance(entries, list):
+        bad(("reviews",), "should be a list of review records")
+        raise SpecError(problems)
+    out = []
+    for i, e in enumerate(entries):
+        if not isinstance(e, dict):
+            bad(("reviews", i), "a review record is a mapping of name, role, date, verdict, fingerprint")
+            continue
+        for key in set(e) - set(FIELDS):
+            bad(("reviews", i, key), f"unknown key '{key}' (allowed: {', '.join(FIELDS)})")
+        for key in FIELDS[:5]:
+            if key not in e:
+                bad(("reviews", i), f"'{key}' is required")
+        if e.get("verdict") is not None and e.get("verdict") not in VERDICTS:
+            bad(("reviews", i, "verdict"), f"{e['verdict']!r} is not one of: {', '.join(VERDICTS)}")
+        if not problems:
+            out.append(Review(**{k: str(e.get(k, "") or "") for k in FIELDS}))
+    if problems:
+        raise SpecError(problems)
+    return out
+
+
+def read_reviews(path: str | Path) -> list[Review]:
+    """Every record in a reviews file, oldest first; [] when there is no file."""
+    p = Path(path)
+    try:
+        raw = p.read_bytes()
+    except FileNotFoundError:
+        return []
+    except OSError as exc:
+        raise SpecError([Problem(Location(str(p)), "", f"cannot read: {exc.strerror or exc}")]) from None
+    return _parse(load_text(raw, str(p)))
+
+
+def _one_line(label: str, text: str, limit: int) -> str:
+    text = text.strip()
+    if not text or "\n" in text or len(text) > limit:
+        raise SpecError([Problem(Location(label), "", f"give one line of at most {limit} characters")])
+    return text
+
+
+def append_review(spec_path: str | Path, source: Source, machine_revision: str, name: str, role: str,
+                  verdict: str, remarks: str = "", when: str | None = None) -> Review:
+    """Add a record for the spec's current content to its reviews file and return it."""
+    if verdict not in VERDICTS:
+        raise SpecError([Problem(Location("--verdict"), "", f"{verdict!r} is not one of: {', '.join(VERDICTS)}")])
+    if len(remarks) > MAX_REMARKS:
+        raise SpecError([Problem(Location("--remarks"), "", f"remarks are limited to {MAX_REMARKS} characters")])
+    record = Review(name=_one_line("--by", name, MAX_NAME), role=_one_line("--role", role, MAX_NAME),
+                    date=review_date(when), verdict=verdict, fingerprint=content_fingerprint(source.data),
+                    machine_revision=machine_revision, remarks=remarks.strip())
+    target = reviews_path(spec_path)
+    old = read_reviews(target)
+    try:
+        head = target.read_bytes()
+    except FileNotFoundError:
+        head = _header(Path(spec_path).name)
+    if head and not head.endswith(b"\n"):
+        head += b"\n"
+    entry = yaml.safe_dump([asdict(record)], sort_keys=False, allow_unicode=True, default_flow_style=False)
+    raw = head + entry.encode("utf-8")
+    if _parse(load_text(raw, str(target))) != old + [record]:
+        raise SpecError([Problem(Location(str(target)), "", "the file does not end with its 'reviews' list; "
+                                 "the new record cannot be appended without rewriting it")])
+    write_atomic(target, raw)
+    return record
+
+
+def _header(spec_name: str) -> bytes:
+    return (
+        f"# Review record for {spec_name}, kept by `specgen review`: one entry per review, oldest first.\n"
+        "# fingerprint: sha256 of the spec's normalised content (quantities in SI, keys sorted), so\n"
+        "# reformatting the spec keeps it and any changed value changes it. Append with `specgen review`;\n"
+        "# do not edit or remove earlier entries. A record of a review, not a signature.\n"
+        f"review_format: {REVIEW_FORMAT}\n"
+        f"spec: {json.dumps(spec_name)}\n"
+        "reviews:\n"
+    ).encode("utf-8")
+
+
+@dataclass(frozen=True)
+class ReviewStatus:
+    """Whether the spec's current content is covered by a review.
+
+    ``state``: "reviewed" (the latest record for this content accepts it), "rejected" (the latest
+    record for this content rejects it), "changed" (records exist, none for this content) or
+    "unreviewed" (no record at all).
+    """
+
+    state: str
+    fingerprint: str | None  # of the current content; None when no review is recorded (nothing to match)
+    file: str
+    matching: Review | None  # latest record for the current content
+    last: Review | None  # latest record of all
+
+    @property
+    def covered(self) -> bool:
+        return self.state == "reviewed"
+
+    @property
+    def text(self) -> str:
+        m, last = self.matching, self.last
+        if self.state == "reviewed":
+            return f"reviewed: {m.verdict.replace('_', ' ')} by {m.who} on {m.date} (fingerprint {m.short})"
+        if self.state == "rejected":
+            return f"rejected by {m.who} on {m.date} (fingerprint {m.short}); revise the spec and have it reviewed again"
+        if self.state == "changed":
+            return (f"changed since the last review ({last.verdict.replace('_', ' ')} by {last.who} on {last.date}, "
+                    f"fingerprint {last.short}; now {self.fingerprint[:12]})")
+        return f"no review recorded (specgen review writes one to {self.file})"
+
+    def as_dict(self) -> dict:
+        return {"state": self.state, "covered": self.covered, "fingerprint": self.fingerprint, "file": self.file,
+                "matching": asdict(self.matching) if self.matching else None,
+                "last": asdict(self.last) if self.last else None, "text": self.text}
+
+
+def status(spec_path: str | Path, source: Source) -> ReviewStatus:
+    """The review state of ``source`` (the loaded spec at ``spec_path``)."""
+    target = reviews_path(spec_path)
+    records = read_reviews(target)
+    if not records:  # nothing to match: spare a large spec the second parse of every quantity
+        return ReviewStatus("unreviewed", None, str(target), None, None)
+    current = content_fingerprint(source.data)
+    matching = next((r for r in reversed(records) if r.fingerprint == current), None)
+    last = records[-1] if records else None
+    if matching:
+        state = "reviewed" if matching.verdict in ACCEPTING else "rejected"
+    else:
+        state = "changed" if records else "unreviewed"
+    return ReviewStatus(state, current, str(target), matching, last)
+
+
+def reviews_for_report(spec_path: str | Path, source: Source) -> list[dict]:
+    """Every recorded review for the report's sign-off block, oldest first, marked against the content.
+
+    Each: name, role, date, verdict, remarks, fingerprint, matches_current (bool).
+    """
+    current = content_fingerprint(source.data)
+    return [{"name": r.name, "role": r.role, "date": r.date, "verdict": r.verdict, "remarks": r.remarks,
+             "fingerprint": r.fingerprint, "matches_current": r.fingerprint == current}
+            for r in read_reviews(reviews_path(spec_path))]

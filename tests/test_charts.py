@@ -1,0 +1,128 @@
+"""Chart functions: deterministic inline SVG with unique ids, greyscale only, text alternatives."""
+
+from __future__ import annotations
+
+import html
+import re
+
+from specgen.present import charts
+from specgen.present.charts import Limit, Line, MarginRow, Point
+
+
+def torque(fig_id="fig1", title="Hoist: torque against pressure differential", **kw):
+    args = dict(x_unit="bar", y_unit="N*m", lines=[Line("Vg 820.0 cm^3/rev", 12.27)],
+                points=[Point("harvest", 211.9, 2600.0), Point("lower", 80.0, 900.0, overrunning=True)],
+                limits=[Limit("relief setting", "280.0 bar", 272.0, "relief"),
+                        Limit("continuous rating", "280.0 bar", 272.0, "continuous"),
+                        Limit("peak rating", "320.0 bar", 312.0, "peak")])
+    args.update(kw)
+    return charts.torque_vs_pressure(fig_id, title, **args)
+
+
+def texts(svg: str) -> list[str]:
+    return [html.unescape(t) for t in re.findall(r"<text[^>]*>([^<]*)</text>", svg)]
+
+
+def test_same_input_same_bytes_and_no_date():
+    a, b = torque(), torque()
+    assert a.svg == b.svg
+    assert "dc:date" not in a.svg and "<dc:creator>" not in a.svg
+    assert not a.svg.startswith("<?xml") and a.svg.startswith("<svg")
+
+
+def test_ids_are_prefixed_per_figure_and_references_follow():
+    one, two = torque("fig1"), torque("fig2")
+    ids1 = set(re.findall(r'\bid="([^"]+)"', one.svg))
+    ids2 = set(re.findall(r'\bid="([^"]+)"', two.svg))
+    assert "fig1" in ids1 and all(i == "fig1" or i.startswith("fig1-") for i in ids1)
+    assert not ids1 & ids2
+    for ref in re.findall(r'(?:href="#|url\(#)([^")]+)', one.svg):
+        assert ref in ids1, ref
+    assert 'role="img" aria-labelledby="fig1-alt"' in one.svg
+
+
+def test_only_greys_so_print_in_greyscale_loses_nothing():
+    svgs = [torque().svg,
+            charts.flow_by_mode("fig3", "Main: flow", unit="L/min", modes=["a", "b"], drives=["d1", "d2", "d3"],
+                                flows=[[10, 20, 5], [30, 0, 1]], delivery=50.0, statuses=["pass", "fail"]).svg,
+            charts.margin_overview("fig4", "Margins", [MarginRow("x", -0.1, "fail"), MarginRow("y", 0.05, "warn", 0.1),
+                                                       MarginRow("z", 0.5, "pass", 0.1)]).svg]
+    for svg in svgs:
+        for colour in set(re.findall(r"#([0-9a-fA-F]{6})\b", svg)):
+            r, g, b = colour[0:2], colour[2:4], colour[4:6]
+            assert r == g == b, colour
+
+
+def test_torque_chart_labels_axes_with_units_and_merges_coinciding_limits():
+    c = torque()
+    shown = texts(c.svg)
+    assert "pressure differential dp [bar]" in shown and "motor torque T [N*m]" in shown
+    # relief setting and continuous rating fall on one line: one label, not two overprinted
+    assert "relief setting = continuous rating 280.0 bar" in shown
+    assert "peak rating 320.0 bar" in shown
+    assert "overrunning duty point" in shown  # the key only lists shapes that are drawn
+    assert "harvest at 211.9 bar, 2600 N*m" in c.alt and "peak rating 320.0 bar at 312.0 bar" in c.alt
+    assert "overrunning duty point" not in texts(torque(points=[Point("a", 1.0, 2.0)]).svg)
+    assert "Vg 820.0 cm^3/rev: 12.27 N*m per bar" in c.alt
+
+
+def test_several_displacements_each_get_a_named_line():
+    c = torque(lines=[Line("Vg 28.00 cm^3/rev", 0.41), Line("Vg 12.00 cm^3/rev", 0.176)])
+    shown = texts(c.svg)
+    assert "Vg 28.00 cm^3/rev" in shown and "Vg 12.00 cm^3/rev" in shown
+    assert "constant displacement (named at the right)" in shown
+
+
+def test_speed_chart_states_limits():
+    c = charts.speed_vs_flow("fig5", "Track: speed against flow", x_unit="L/min", y_unit="rpm",
+                             lines=[Line("Vg 820.0 cm^3/rev", 1.171)], points=[Point("harvest", 20.5, 24.0)],
+                             limits=[Limit("maximum speed", "110.0 rpm", 110.0, "max"),
+                                     Limit("minimum speed", "3.000 rpm", 3.0, "min")])
+    assert "motor speed n [rpm]" in texts(c.svg) and "flow to motor q [L/min]" in texts(c.svg)
+    assert "maximum speed 110.0 rpm at 110.0 rpm" in c.alt and "harvest at 20.50 L/min, 24.00 rpm" in c.alt
+
+
+def test_flow_chart_totals_and_status_in_text():
+    c = charts.flow_by_mode("fig6", "Main: flow demand by operating mode", unit="L/min", modes=["harvest", "transit"],
+                            drives=["left", "right"], flows=[[20.5, 20.5], [51.25, 60.0]], delivery=100.0,
+                            statuses=["pass", "fail"])
+    shown = texts(c.svg)
+    assert "41.00" in shown and "111.2 FAIL" in shown  # 51.25 + 60 = 111.25 over the 100 delivered
+    assert "pump delivery 100.0 L/min" in shown
+    assert "transit: 111.2 L/min fail (left 51.25, right 60.00)" in c.alt
+
+
+def test_power_chart_without_prime_mover():
+    c = charts.power_by_mode("fig7", "Aux: power", unit="kW", modes=["m1"], power=[22.9], available=None)
+    assert "No prime mover power given" in c.alt and "prime mover" not in " ".join(texts(c.svg))
+
+
+def test_margin_overview_puts_crossed_limits_first_and_labels_them():
+    rows = [MarginRow("fan: speed vs max rating", 0.30, "pass", 0.05),
+            MarginRow("hoist lift: inlet vs relief", -0.2, "fail", 0.1),
+            MarginRow("track climb: inlet vs relief", 0.069, "warn", 0.1),
+            MarginRow("track: speed vs min rating", 7.0, "pass")]
+    c = charts.margin_overview("fig8", "Margins", rows)
+    shown = texts(c.svg)
+    order = [t for t in shown if t in {r.label for r in rows}]
+    assert order == ["hoist lift: inlet vs relief", "track climb: inlet vs relief", "fan: speed vs max rating",
+                     "track: speed vs min rating"]
+    assert "-20.00 % FAIL" in shown and "6.900 % WARN" in shown and "> 700.0 %" in shown
+    assert "1 crossed and 1 within the warning level" in c.alt
+
+
+def test_hostile_and_dollar_text_is_kept_as_text():
+    c = torque(title="Winch <script>alert(1)</script> $5 $x$")
+    assert "<script" not in c.svg
+    assert "Winch &lt;script&gt;alert(1)&lt;/script&gt; $5 $x$" in c.svg  # no mathtext, escaped
+
+
+def test_coinciding_points_share_one_label_and_close_limits_stack():
+    c = torque(points=[Point("hoist", 100.0, 1200.0), Point("lower", 100.0, 1200.0, overrunning=True)],
+               limits=[Limit("compensator setting", "270.0 bar", 262.0, "compensator"),
+                       Limit("relief setting", "280.0 bar", 272.0, "relief")])
+    shown = texts(c.svg)
+    assert "hoist, lower" in shown and "hoist" not in shown
+    # two close limits with different values: one line of text each, never joined by "="
+    assert "compensator setting 270.0 bar" in shown and "relief setting 280.0 bar" in shown
+    assert not any("=" in t for t in shown)

@@ -1,0 +1,29 @@
+"""Full garbage collections wait while a command runs, and the setting comes back after it."""
+
+from __future__ import annotations
+
+import gc
+
+import pytest
+from helpers import EXAMPLE
+
+from specgen import cli
+from specgen.heap import FULL_SWEEP_AFTER, few_full_collections
+
+
+def test_full_sweeps_wait_inside_and_the_setting_comes_back_even_after_an_error():
+    before = gc.get_threshold()
+    with pytest.raises(RuntimeError):
+        with few_full_collections():
+            inside = gc.get_threshold()
+            raise RuntimeError
+    assert inside == (before[0], before[1], max(before[2], FULL_SWEEP_AFTER))
+    assert gc.get_threshold() == before
+
+
+def test_a_command_runs_with_full_sweeps_waiting(monkeypatch):
+    seen = []
+    monkeypatch.setitem(cli.COMMANDS, "check", lambda args: seen.append(gc.get_threshold()[2]) or 0)
+    before = gc.get_threshold()
+    assert cli.main(["check", str(EXAMPLE)]) == 0
+    assert seen == [max(before[2], FULL_SWEEP_AFTER)] and gc.get_threshold() == before

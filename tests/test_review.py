@@ -1,0 +1,146 @@
+"""Review records: content fingerprint, append-only record file, review state in check."""
+
+import json
+
+import pytest
+import yaml
+
+from helpers import minimal, run_cli, write_spec
+from specgen.review import content_fingerprint, read_reviews, review_date, reviews_for_report, reviews_path
+from specgen.spec.load import load_file
+
+REVIEW = ("--by", "A. Checker", "--role", "checking engineer", "--verdict", "approved", "--date", "2025-03-14")
+
+
+def fp(data) -> str:
+    return content_fingerprint(data)
+
+
+def test_fingerprint_ignores_layout_order_and_unit_spelling(tmp_path):
+    base = minimal()
+    block = write_spec(tmp_path, base, "block.yaml")
+    flow = tmp_path / "flow.yaml"  # same data: flow style, keys reversed, a comment, other quoting
+    flow.write_text("# reformatted\n" + yaml.safe_dump(dict(reversed(list(base.items()))), default_flow_style=True,
+                                                        default_style='"'), encoding="utf-8")
+    assert fp(load_file(block).data) == fp(load_file(flow).data)
+    respelled = minimal()
+    s = respelled["supplies"]["main"]
+    s["relief_setting"] = "25 MPa"  # = 250 bar (1 bar = 1e5 Pa, SI definition)
+    s["return_pressure"] = "0.5 MPa"
+    s["prime_mover_power"] = "30000 W"
+    s["pump"]["volumetric_efficiency"] = "95 %"
+    s["pump"]["shaft_speed"] = "25 rev/s"  # = 1500 rpm
+    respelled["drives"]["hoist"]["motor"]["displacement"] = "0.1 L"  # = 100 cm^3
+    assert fp(respelled) == fp(base)
+
+
+@pytest.mark.parametrize("change", [
+    lambda d: d["supplies"]["main"].update(relief_setting="251 bar"),
+    lambda d: d["supplies"]["main"].update(relief_setting="3626 psi"),  # 250.004 bar (pint): not the same value
+    lambda d: d["machine"].update(title="Test rig, revised"),
+    lambda d: d["drives"]["hoist"]["duty_points"]["lift"].update(starting_torque="300 N*m"),
+    lambda d: d["drives"]["hoist"]["motor"]["efficiency"].update(volumetric=0.951),
+])
+def test_any_value_change_changes_the_fingerprint(change):
+    d = minimal()
+    change(d)
+    assert fp(d) != fp(minimal())
+
+
+def test_review_date_sources():
+    assert review_date("2025-03-14") == "2025-03-14"
+    assert review_date(None, {"SOURCE_DATE_EPOCH": "1700000000"}) == "2023-11-14"  # 2023-11-14T22:13:20Z
+
+
+def test_review_then_require_review(tmp_path):
+    spec = write_spec(tmp_path, minimal())
+    code, out, err = run_cli("check", "--quiet", "--require-review", spec)
+    assert code == 1 and "Review: no review recorded" in out and "review required" in err
+    code, out, _ = run_cli("review", spec, *REVIEW, "--remarks", "margins: fine | ok")
+    assert code == 0 and "approved by A. Checker (checking engineer) on 2025-03-14" in out
+    code, out, _ = run_cli("check", "--quiet", "--require-review", spec)
+    assert code == 0 and "Review: reviewed: approved by A. Checker" in out
+    # reformatting keeps the review; a value change does not
+    spec.write_text("# tidied\n" + yaml.safe_dump(minimal(), default_flow_style=True), encoding="utf-8")
+    assert run_cli("check", "--require-review", spec)[0] == 0
+    d = minimal()
+    d["drives"]["hoist"]["duty_points"]["lift"]["torque"] = "290 N*m"
+    write_spec(tmp_path, d)
+    code, out, err = run_cli("check", "--require-review", spec)
+    assert code == 1 and "changed since the last review" in out and "review required" in err
+    assert run_cli("check", spec)[0] == 0  # without the flag the state is told but does not fail
+    doc = json.loads(run_cli("check", "--format", "json", spec)[1])
+    assert doc["review"]["state"] == "changed" and doc["review"]["last"]["remarks"] == "margins: fine | ok"
+
+
+def test_rejected_review_does_not_cover(tmp_path):
+    spec = write_spec(tmp_path, minimal())
+    run_cli("review", spec, "--by", "B. Lead", "--role", "approver", "--verdict", "rejected", "--date", "2025-03-15")
+    code, out, _ = run_cli("check", "--require-review", spec)
+    assert code == 1 and "Review: rejected by B. Lead (approver)" in out
+
+
+def test_failing_checks_still_fail_when_reviewed(tmp_path):
+    d = minimal()
+    d["drives"]["hoist"]["duty_points"]["lift"]["torque"] = "400 N*m"
+    spec = write_spec(tmp_path, d)
+    run_cli("review", spec, *REVIEW)
+    assert run_cli("check", "--require-review", spec)[0] == 1
+
+
+def test_append_never_rewrites_earlier_records(tmp_path, monkeypatch):
+    spec = write_spec(tmp_path, minimal())
+    run_cli("review", spec, *REVIEW, "--remarks", "first: 'quoted' # not a comment\nsecond line")
+    first = reviews_path(spec).read_bytes()
+    monkeypatch.setenv("SOURCE_DATE_EPOCH", "1700000000")
+    d = minimal()
+    d["machine"]["revision"] = "B"
+    write_spec(tmp_path, d)
+    assert run_cli("review", spec, "--by", "B. Lead", "--role", "approver", "--verdict", "approved_with_remarks")[0] == 0
+    second = reviews_path(spec).read_bytes()
+    assert second.startswith(first) and len(second) > len(first)
+    records = read_reviews(reviews_path(spec))
+    assert [(r.name, r.date, r.machine_revision) for r in records] == [
+        ("A. Checker", "2025-03-14", "A"), ("B. Lead", "2023-11-14", "B")]
+    assert records[0].remarks == "first: 'quoted' # not a comment\nsecond line"
+    report = reviews_for_report(spec, load_file(spec))
+    assert [r["matches_current"] for r in report] == [False, True]
+    assert set(report[0]) == {"name", "role", "date", "verdict", "remarks", "fingerprint", "matches_current"}
+
+
+def test_reviews_file_name_and_folder_check(tmp_path):
+    spec = write_spec(tmp_path, minimal(), "loader.yaml")
+    run_cli("review", spec, *REVIEW)
+    assert reviews_path(spec) == tmp_path / "loader.reviews.yaml" and reviews_path(spec).is_file()
+    code, out, err = run_cli("check", "--quiet", tmp_path)  # the record file is not taken for a spec
+    assert code == 0, err
+    assert "loader.reviews.yaml:" not in out and out.count("PASS") == 1
+
+
+@pytest.mark.parametrize("args, message", [
+    (("--by", " ", "--role", "x", "--verdict", "approved"), "--by: give one line"),
+    (("--by", "A\nB", "--role", "x", "--verdict", "approved"), "--by: give one line"),
+    (("--by", "A", "--role", "x", "--verdict", "approved", "--date", "14/03/2025"), "--date: '14/03/2025' is not a date"),
+])
+def test_bad_review_arguments_exit_2_and_write_nothing(tmp_path, args, message):
+    spec = write_spec(tmp_path, minimal())
+    code, _, err = run_cli("review", spec, *args)
+    assert code == 2 and message in err and not reviews_path(spec).exists()
+
+
+def test_corrupt_reviews_file_is_reported_and_kept(tmp_path):
+    spec = write_spec(tmp_path, minimal())
+    target = reviews_path(spec)
+    target.write_text("review_format: 1\nreviews:\n- name: A\n  verdict: fine\n", encoding="utf-8")
+    before = target.read_bytes()
+    code, _, err = run_cli("review", spec, *REVIEW)
+    assert code == 2 and f"{target}:4:" in err and "'fine' is not one of" in err
+    assert target.read_bytes() == before
+    assert run_cli("check", spec)[0] == 2
+
+
+def test_review_of_an_invalid_spec_is_refused(tmp_path):
+    d = minimal()
+    d["supplies"]["main"]["relief_setting"] = "250 kg"
+    spec = write_spec(tmp_path, d)
+    assert run_cli("review", spec, *REVIEW)[0] == 2 and not reviews_path(spec).exists()

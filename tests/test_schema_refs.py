@@ -1,0 +1,89 @@
+"""Inlining the schema's local references changes no verdict and no message (JSON Schema 2020-12:
+a "$ref" beside other keywords applies together with them, as "allOf" does)."""
+
+from __future__ import annotations
+
+import copy
+
+import jsonschema
+from helpers import example_data
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from specgen.spec.schema_refs import inline_local_refs
+from specgen.spec import validate
+from specgen.spec.validate import schema
+
+
+def test_refs_are_replaced_and_siblings_kept_beside_them():
+    s = {"$defs": {"p": {"type": "string"}, "a~b/c": {"minimum": 0}},
+         "properties": {"x": {"$ref": "#/$defs/p"}, "y": {"$ref": "#/$defs/p", "description": "why"},
+                        "z": {"$ref": "#/$defs/a~0b~1c"}, "w": {"enum": [{"$ref": "#/$defs/p"}]}}}
+    out = inline_local_refs(s)
+    assert out["properties"]["x"] == {"type": "string"}
+    assert out["properties"]["y"] == {"allOf": [{"type": "string"}], "description": "why"}
+    assert out["properties"]["z"] == {"minimum": 0}  # RFC 6901 escapes
+    assert out["properties"]["w"] == {"enum": [{"$ref": "#/$defs/p"}]}  # data, not a schema
+    assert s["properties"]["x"] == {"$ref": "#/$defs/p"}  # the original is left alone
+
+
+def test_recursive_ref_is_kept_and_still_validates():
+    s = {"$defs": {"node": {"type": "object", "properties": {"next": {"$ref": "#/$defs/node"}},
+                            "additionalProperties": False}},
+         "$ref": "#/$defs/node"}
+    out = inline_local_refs(s)
+    assert out["allOf"][0]["properties"]["next"] == {"$ref": "#/$defs/node"}  # inside itself: kept
+    v = jsonschema.Draft202012Validator(out)
+    assert v.is_valid({"next": {"next": {}}}) and not v.is_valid({"next": {"other": 1}})
+
+
+_ORIGINAL = jsonschema.Draft202012Validator(schema())
+_INLINED = jsonschema.Draft202012Validator(inline_local_refs(schema()))
+_BAD = [None, 12, -1, 0.5, True, "x", "12 furlongs", [], {}, {"zz": 1}, [1, "a"]]
+
+
+def _paths(node, here=()):
+    yield here
+    if isinstance(node, dict):
+        for k, v in node.items():
+            yield from _paths(v, here + (k,))
+    elif isinstance(node, list):
+        for i, v in enumerate(node):
+            yield from _paths(v, here + (i,))
+
+
+_DEMO = example_data()
+_ALL = [p for p in _paths(_DEMO) if p]
+
+
+def _messages(validator, data) -> list[tuple]:
+    """check_schema's sentences as they come from ``validator`` (its schema is the one they read)."""
+    saved = validate._validator
+    validate._validator = lambda: validator
+    try:
+        return sorted((tuple(map(str, path)), message)
+                      for path, message in map(validate._schema_message, validator.iter_errors(data)))
+    finally:
+        validate._validator = saved
+
+
+@settings(max_examples=150)
+@given(st.lists(st.tuples(st.sampled_from(_ALL), st.sampled_from(_BAD + ["delete"])), min_size=1, max_size=3))
+def test_inlined_schema_gives_the_same_problems_as_the_original(edits):
+    data = copy.deepcopy(_DEMO)
+    for path, bad in edits:
+        parent = data
+        try:
+            for part in path[:-1]:
+                parent = parent[part]
+            if bad == "delete":
+                del parent[path[-1]]
+            else:
+                parent[path[-1]] = copy.deepcopy(bad)
+        except (KeyError, IndexError, TypeError):
+            continue  # an earlier edit removed or replaced this path
+    assert _messages(_INLINED, data) == _messages(_ORIGINAL, data)
+
+
+def test_demo_is_valid_under_both():
+    assert _messages(_ORIGINAL, _DEMO) == _messages(_INLINED, _DEMO) == []
