@@ -13,7 +13,6 @@ from pathlib import Path
 
 from specgen import __version__
 from specgen.errors import Location, Problem, SpecError
-from specgen.heap import few_full_collections
 
 EXIT_OK, EXIT_CHECKS, EXIT_INPUT = 0, 1, 2
 
@@ -186,7 +185,10 @@ def cmd_report(args) -> int:
     outcomes, problems = _evaluate_all(spec_paths(args.specs), args.allow_outside_files)
     if problems:
         raise SpecError(problems)
-    written = report.write(outcomes, args.output, date=date, pdf=args.pdf)
+    from specgen.review import reviews_for_report
+
+    written = report.write(outcomes, args.output, date=date, pdf=args.pdf,
+                           reviews_for=lambda o: reviews_for_report(o.source.name, o.source))
     for note in written.notes:
         print(f"note: {note}", file=sys.stderr)
     for o in outcomes:
@@ -227,8 +229,7 @@ def main(argv: list[str] | None = None) -> int:
         ap.print_help()
         return EXIT_INPUT
     try:
-        with few_full_collections():  # specgen/heap.py: a third of a large check's time otherwise
-            return COMMANDS[args.command](args)
+        return COMMANDS[args.command](args)
     except SpecError as exc:
         for p in exc.problems:
             print(f"error: {p}", file=sys.stderr)

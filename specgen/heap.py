@@ -1,12 +1,14 @@
-"""How the garbage collector runs while one command runs.
+"""How the garbage collector runs while a spec is loaded, validated, computed and checked.
 
-A command builds a few hundred thousand objects that live until it ends (the spec with the
-position of every key, the model, the results with their traces) and makes almost no cyclic
-garbage: about 1,700 unreachable objects after checking a 1,000-drive spec. Python's full
+Those stages build a few hundred thousand objects that live on (the spec with the position of
+every key, the model, the results with their traces) and make almost no cyclic garbage: about
+1,700 unreachable objects after checking a 1,000-drive spec. Python's full
 collections rescan every live object each time the heap grows by a quarter; on that spec they
 took a third of `specgen check`'s time and found next to nothing. Young objects are still
 collected as usual; only the full sweeps wait (until 1,000 middle-generation sweeps, which a
-run does not reach). Measured with `python -m specgen.bench`.
+spec does not reach). Rendering is left alone: matplotlib figures are cyclic garbage that only
+full sweeps free, and a report of 50 specs would keep hundreds of them. Measured with
+`python -m specgen.bench`.
 """
 
 from __future__ import annotations

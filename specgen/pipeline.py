@@ -7,6 +7,7 @@ from pathlib import Path
 
 from specgen.calc.resolve import resolve
 from specgen.checks import run_checks
+from specgen.heap import few_full_collections
 from specgen.results import Results
 from specgen.spec.load import Source, load_file, load_text
 from specgen.spec.model import Machine
@@ -22,15 +23,18 @@ class Outcome:
 
 def evaluate(source: Source, allow_outside_files: bool = False) -> Outcome:
     """``allow_outside_files``: a file the spec names (a parts file) may lie outside its folder tree."""
-    machine = build(source, allow_outside_files=allow_outside_files)
-    results = run_checks(machine, resolve(machine))
+    with few_full_collections():  # these stages make no cyclic garbage to sweep for (specgen/heap.py)
+        machine = build(source, allow_outside_files=allow_outside_files)
+        results = run_checks(machine, resolve(machine))
     return Outcome(source, machine, results)
 
 
 def run_file(path: str | Path, allow_outside_files: bool = False) -> Outcome:
     """Load, validate, compute and check one spec file. Raises SpecError for bad input."""
-    return evaluate(load_file(path), allow_outside_files=allow_outside_files)
+    with few_full_collections():
+        return evaluate(load_file(path), allow_outside_files=allow_outside_files)
 
 
 def run_text(raw: bytes, name: str) -> Outcome:
-    return evaluate(load_text(raw, name))
+    with few_full_collections():
+        return evaluate(load_text(raw, name))

@@ -7,7 +7,7 @@ import gc
 import pytest
 from helpers import EXAMPLE
 
-from specgen import cli
+from specgen import pipeline
 from specgen.heap import FULL_SWEEP_AFTER, few_full_collections
 
 
@@ -21,9 +21,11 @@ def test_full_sweeps_wait_inside_and_the_setting_comes_back_even_after_an_error(
     assert gc.get_threshold() == before
 
 
-def test_a_command_runs_with_full_sweeps_waiting(monkeypatch):
+def test_the_pipeline_runs_with_full_sweeps_waiting_and_rendering_does_not(monkeypatch):
     seen = []
-    monkeypatch.setitem(cli.COMMANDS, "check", lambda args: seen.append(gc.get_threshold()[2]) or 0)
+    real = pipeline.resolve
+    monkeypatch.setattr(pipeline, "resolve", lambda machine: seen.append(gc.get_threshold()[2]) or real(machine))
     before = gc.get_threshold()
-    assert cli.main(["check", str(EXAMPLE)]) == 0
+    outcome = pipeline.run_file(EXAMPLE)
     assert seen == [max(before[2], FULL_SWEEP_AFTER)] and gc.get_threshold() == before
+    assert outcome.results.checks  # the real work was done under the setting

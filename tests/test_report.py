@@ -367,7 +367,7 @@ def test_recorded_reviews_block(tmp_path):
     o = run_file(write_spec(tmp_path, minimal()))
     page = report.render(o, fp=FIXED, reviews=[{
         "name": "B. Checker", "role": "checking engineer", "date": "2025-03-14", "verdict": "approved",
-        "fingerprint": "ab" * 32, "machine_revision": "A", "remarks": HOSTILE}])
+        "fingerprint": "ab" * 32, "matches_current": True, "remarks": HOSTILE}])
     reviews = page[page.index('id="reviews"'):page.index('id="signoff"')]
     assert "B. Checker" in reviews and "abababababab" in reviews and "&lt;script&gt;" in reviews
 

@@ -144,3 +144,23 @@ def test_review_of_an_invalid_spec_is_refused(tmp_path):
     d["supplies"]["main"]["relief_setting"] = "250 kg"
     spec = write_spec(tmp_path, d)
     assert run_cli("review", spec, *REVIEW)[0] == 2 and not reviews_path(spec).exists()
+
+
+def test_report_lists_reviews_and_marks_stale_ones(tmp_path):
+    spec = write_spec(tmp_path, minimal())
+    assert run_cli("review", spec, *REVIEW)[0] == 0
+    d = minimal()
+    d["drives"]["hoist"]["duty_points"]["lift"]["torque"] = "290 N*m"
+    write_spec(tmp_path, d)
+    assert run_cli("review", spec, "--by", "B. Approver", "--role", "approver", "--verdict", "approved",
+                   "--date", "2025-04-01")[0] == 0
+    d["drives"]["hoist"]["duty_points"]["lift"]["torque"] = "295 N*m"
+    write_spec(tmp_path, d)
+    out = tmp_path / "rep"
+    assert run_cli("report", spec, "-o", out)[0] == 0
+    html = (out / "index.html").read_text(encoding="utf-8")
+    section = html[html.index('id="reviews"'):html.index('id="signoff"')]
+    assert "A. Checker" in section and "B. Approver" in section
+    assert section.count("NO LONGER MATCHES") == 2
+    # the sign-off block keeps its empty lines for ink
+    assert "signature" in html[html.index('id="signoff"'):].lower()

@@ -49,7 +49,7 @@ def duty_mechanics(drive: Drive, duty: DutyPoint) -> Record:
     ratio, eta_g = _gear(drive)
     overrun = duty.direction == "overrunning"
     t_load, n_load = rec.get("load_torque"), rec.get("load_speed")
-    i_in = Input("i", "gear ratio", ratio, "ratio")
+    i_in = Input("i", "gear ratio", ratio, "number")
     g_in = eff("eta_g", "gear efficiency", eta_g)
     tl_in = Input("T_L", "load torque", t_load, "torque")
     nl_in = Input("n_L", "load speed", n_load, "speed")
@@ -145,7 +145,7 @@ def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup
     n_in = Input("n", "motor speed", n_m, "speed")
     hm_in = eff("eta_hm", "hydro-mechanical efficiency", eta_hm)
     v_in = eff("eta_v", "volumetric efficiency", eta_v)
-    i_in = Input("i", "gear ratio", ratio, "ratio")
+    i_in = Input("i", "gear ratio", ratio, "number")
     g_in = eff("eta_g", "gear efficiency", eta_g)
 
     q = rec.put(Value("flow_demand", "Flow demand", "q", motor.flow_for_speed(n_m, vg, eta_v.value), "flow",
