@@ -704,6 +704,14 @@ def _folder_names(outcomes: list[Outcome]) -> list[str]:
     return names
 
 
+def _refuse_outside(root: Path, dest: Path) -> None:
+    """Refuse to write through a symlinked folder that leads out of the output folder."""
+    parent = Path(os.path.realpath(dest.parent))
+    if parent != root and root not in parent.parents:
+        raise SpecError([Problem(Location(str(dest.parent)), "",
+                                 "is a symlink out of the output folder; specgen will not write through it")])
+
+
 def write(outcomes: list[Outcome], outdir: str | Path, *, date: str | None = None, pdf: bool = False,
           reviews_for=None) -> Written:
     """Write the report(s) into ``outdir``: one spec gives OUTDIR/index.html (and report.pdf with
@@ -748,11 +756,15 @@ def write(outcomes: list[Outcome], outdir: str | Path, *, date: str | None = Non
                 os.fsync(fh.fileno())
         # All rendered: swap the files in. A PDF left from an earlier run would no longer match.
         target.mkdir(parents=True, exist_ok=True)
+        root = Path(os.path.realpath(target))
+        for path in rel:
+            _refuse_outside(root, target / path)
         for path in rel:
             (target / path).parent.mkdir(parents=True, exist_ok=True)
             os.replace(staging / path, target / path)
         for name in names:
             stale = target / name / PDF_FILE if name else target / PDF_FILE
+            _refuse_outside(root, stale)
             if not make_pdf and stale.exists():
                 stale.unlink()
                 notes.append(f"removed {stale} from an earlier run: it no longer matches this report")
