@@ -27,8 +27,9 @@ Breakdown terms (they sum to ``total``):
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
+
+from specgen.calc.guards import non_negative as _non_negative, efficiency as _efficiency
 
 # Demand within this relative margin above delivery counts as equal (rounding
 # of flows computed elsewhere).
@@ -51,20 +52,6 @@ class HeatBreakdown:
     def total(self) -> float:
         """Heat load in W: ``P_pump_in - P_shaft`` (equals the sum of the loss terms)."""
         return self.pump_input - self.shaft_power
-
-
-def _non_negative(name: str, value: float) -> float:
-    value = float(value)
-    if not math.isfinite(value) or value < 0.0:
-        raise ValueError(f"{name} must not be negative, got {value}.")
-    return value
-
-
-def _efficiency(name: str, value: float) -> float:
-    value = float(value)
-    if not math.isfinite(value) or not 0.0 < value <= 1.0:
-        raise ValueError(f"{name} must be greater than 0 and at most 1, got {value}.")
-    return value
 
 
 def _check_shaft_power(shaft_power: float, hydraulic_to_drives: float) -> float:

@@ -17,6 +17,8 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+from specgen.calc.guards import positive as _positive, non_negative as _non_negative
+
 RE_LAMINAR_LIMIT = 2300.0
 RE_TURBULENT_LIMIT = 4000.0
 
@@ -45,20 +47,6 @@ def line_velocity_limits(kind: str) -> VelocityRange:
         return LINE_VELOCITY_LIMITS[kind]
     except KeyError:
         raise ValueError(f"unknown line kind {kind!r}; expected one of {', '.join(LINE_VELOCITY_LIMITS)}.") from None
-
-
-def _positive(name: str, value: float) -> float:
-    value = float(value)
-    if not math.isfinite(value) or value <= 0.0:
-        raise ValueError(f"{name} must be greater than zero, got {value}.")
-    return value
-
-
-def _non_negative(name: str, value: float) -> float:
-    value = float(value)
-    if not math.isfinite(value) or value < 0.0:
-        raise ValueError(f"{name} must not be negative, got {value}.")
-    return value
 
 
 def flow_area(inner_diameter: float) -> float:

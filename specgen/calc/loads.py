@@ -13,6 +13,8 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+from specgen.calc.guards import finite as _finite, positive as _positive, non_negative as _non_negative
+
 STANDARD_GRAVITY = 9.80665  # m/s^2, CGPM 1901 conventional value
 
 
@@ -27,27 +29,6 @@ class ShaftLoad:
     def power(self) -> float:
         """Shaft power in W: P = 2*pi*n*T."""
         return 2.0 * math.pi * self.speed * self.torque
-
-
-def _finite(name: str, value: float) -> float:
-    value = float(value)
-    if not math.isfinite(value):
-        raise ValueError(f"{name} must be a finite number, got {value}.")
-    return value
-
-
-def _positive(name: str, value: float) -> float:
-    value = _finite(name, value)
-    if value <= 0.0:
-        raise ValueError(f"{name} must be greater than zero, got {value}.")
-    return value
-
-
-def _non_negative(name: str, value: float) -> float:
-    value = _finite(name, value)
-    if value < 0.0:
-        raise ValueError(f"{name} must not be negative, got {value}.")
-    return value
 
 
 # --- winch -----------------------------------------------------------------

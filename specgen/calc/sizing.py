@@ -9,6 +9,8 @@ import math
 from collections.abc import Iterable, Sequence
 from dataclasses import dataclass
 
+from specgen.calc.guards import positive as _positive, efficiency as _efficiency
+
 # ISO 3 preferred numbers, rounded values of the basic series (one decade).
 R5: tuple[float, ...] = (1.00, 1.60, 2.50, 4.00, 6.30)
 R10: tuple[float, ...] = (1.00, 1.25, 1.60, 2.00, 2.50, 3.15, 4.00, 5.00, 6.30, 8.00)
@@ -27,20 +29,6 @@ PREFERRED_SERIES: dict[str, tuple[float, ...]] = {"R5": R5, "R10": R10, "R20": R
 # A value within this relative distance of a series member counts as equal to
 # it, so 160 cm^3 (1.6e-4 m^3, not exact in binary) maps to 160 and not 200.
 _REL_TOL = 1e-9
-
-
-def _positive(name: str, value: float) -> float:
-    value = float(value)
-    if not math.isfinite(value) or value <= 0.0:
-        raise ValueError(f"{name} must be greater than zero, got {value}.")
-    return value
-
-
-def _efficiency(name: str, value: float) -> float:
-    value = _positive(name, value)
-    if value > 1.0:
-        raise ValueError(f"{name} must not exceed 1, got {value}.")
-    return value
 
 
 def minimum_displacement(torque: float, target_pressure: float, outlet_pressure: float, eta_hm: float) -> float:

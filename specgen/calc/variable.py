@@ -13,26 +13,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-
-def _positive(name: str, value: float) -> float:
-    value = float(value)
-    if not math.isfinite(value) or value <= 0.0:
-        raise ValueError(f"{name} must be greater than zero, got {value}.")
-    return value
-
-
-def _non_negative(name: str, value: float) -> float:
-    value = float(value)
-    if not math.isfinite(value) or value < 0.0:
-        raise ValueError(f"{name} must not be negative, got {value}.")
-    return value
-
-
-def _efficiency(name: str, value: float) -> float:
-    value = _positive(name, value)
-    if value > 1.0:
-        raise ValueError(f"{name} must not exceed 1, got {value}.")
-    return value
+from specgen.calc.guards import positive as _positive, non_negative as _non_negative, efficiency as _efficiency
 
 
 def _range(vg_min: float, vg_max: float) -> tuple[float, float]:
