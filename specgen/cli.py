@@ -13,6 +13,7 @@ from pathlib import Path
 
 from specgen import __version__
 from specgen.errors import Location, Problem, SpecError
+from specgen.heap import few_full_collections
 
 EXIT_OK, EXIT_CHECKS, EXIT_INPUT = 0, 1, 2
 
@@ -122,6 +123,7 @@ def _evaluate_all(paths: list[str], allow_outside_files: bool = False):
     return outcomes, problems
 
 
+@few_full_collections()  # check renders only text or JSON: no cyclic garbage (specgen/heap.py)
 def cmd_check(args) -> int:
     outcomes, problems = _evaluate_all(spec_paths(args.specs), args.allow_outside_files)
     if problems:

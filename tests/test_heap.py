@@ -29,3 +29,15 @@ def test_the_pipeline_runs_with_full_sweeps_waiting_and_rendering_does_not(monke
     outcome = pipeline.run_file(EXAMPLE)
     assert seen == [max(before[2], FULL_SWEEP_AFTER)] and gc.get_threshold() == before
     assert outcome.results.checks  # the real work was done under the setting
+
+
+def test_check_runs_with_full_sweeps_waiting_to_its_end(monkeypatch):
+    from specgen import cli
+    from specgen.present import text
+
+    seen = []
+    real = text.render
+    monkeypatch.setattr(text, "render", lambda *a, **k: seen.append(gc.get_threshold()[2]) or real(*a, **k))
+    before = gc.get_threshold()
+    assert cli.main(["check", "-q", str(EXAMPLE)]) in (0, 1)
+    assert seen == [max(before[2], FULL_SWEEP_AFTER)] and gc.get_threshold() == before
