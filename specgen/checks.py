@@ -11,6 +11,7 @@ from __future__ import annotations
 from dataclasses import replace
 from typing import Callable, Iterator
 
+from specgen.checks_depth import DEPTH_CHECKS
 from specgen.results import Check, Results
 from specgen.spec.model import Machine
 from specgen.units import format_si
@@ -196,11 +197,7 @@ def prime_mover(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]
 
 
 CHECKS = [pressure_margin, pressure_ratings, speed_ratings, breakaway, port_pressures, load_holding,
-          supply_flow, prime_mover]
-
-from specgen.checks_depth import DEPTH_CHECKS  # noqa: E402  (they reuse this module's status rules)
-
-CHECKS += DEPTH_CHECKS
+          supply_flow, prime_mover] + DEPTH_CHECKS
 
 
 def run_checks(machine: Machine, results: Results) -> Results:
