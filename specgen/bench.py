@@ -157,7 +157,8 @@ def run_once(case: Case, env: dict, ok_codes=(0, 1)) -> None:
             raise CaseFailed(f"{case.name}: exit {p.returncode}: {' | '.join(tail)}")
     case.seconds.append(elapsed)
     case.cpu.append(usage.ru_utime + usage.ru_stime)
-    case.peak_kb.append(usage.ru_maxrss)  # kilobytes on Linux
+    # kilobytes on Linux; an upper bound, since it starts from this small parent's high-water mark
+    case.peak_kb.append(usage.ru_maxrss)
 
 
 def _help(command: str, env: dict) -> str | None:

@@ -37,8 +37,16 @@ def traced(*args) -> tuple[int, str, float]:
     return code, err, peak
 
 
+# Peak resident size of the child's own memory. VmHWM belongs to the process image the child
+# runs; ru_maxrss would not do: Linux carries the parent's high-water mark across fork and exec,
+# so a child of a large pytest process would report pytest's size.
 CHILD = ("import resource, sys\nfrom specgen.cli import main\ncode = main(sys.argv[1:])\n"
-         "print('MAXRSS', resource.getrusage(resource.RUSAGE_SELF).ru_maxrss, file=sys.stderr)\nsys.exit(code)\n")
+         "kb = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss\n"
+         "try:\n"
+         "    kb = next(int(l.split()[1]) for l in open('/proc/self/status') if l.startswith('VmHWM:'))\n"
+         "except (OSError, StopIteration):\n"
+         "    pass\n"
+         "print('MAXRSS', kb, file=sys.stderr)\nsys.exit(code)\n")
 
 
 def measured(*args) -> tuple[int, str, str, float]:
