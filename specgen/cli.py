@@ -1,7 +1,7 @@
 """Command line: parse arguments, call the pipeline, decide the exit status in one place.
 
 Exit status: 0 all checks pass (warnings allowed unless --strict); 1 a check fails (or warns
-with --strict); 2 the input is invalid or a file cannot be read or written.
+with --strict); 2 the input is invalid or a file cannot be read or written; 3 an internal error.
 """
 
 from __future__ import annotations
