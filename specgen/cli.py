@@ -184,6 +184,7 @@ def cmd_report(args) -> int:
     from specgen.present.text import headline
 
     date = report.report_date(args.date, os.environ.get("SOURCE_DATE_EPOCH"))
+    report.start_drawing()  # chart workers import matplotlib while the specs are checked; write stops them
     outcomes, problems = _evaluate_all(spec_paths(args.specs), args.allow_outside_files)
     if problems:
         raise SpecError(problems)

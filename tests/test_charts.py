@@ -126,3 +126,73 @@ def test_coinciding_points_share_one_label_and_close_limits_stack():
     # two close limits with different values: one line of text each, never joined by "="
     assert "compensator setting 270.0 bar" in shown and "relief setting 280.0 bar" in shown
     assert not any("=" in t for t in shown)
+
+
+def test_ticks_are_round_and_written_with_the_fewest_decimals():
+    assert charts.ticks(0, 4400, 170, 14) == ([0.0, 500.0, 1000.0, 1500.0, 2000.0, 2500.0, 3000.0, 3500.0, 4000.0],
+                                              ["0", "500", "1000", "1500", "2000", "2500", "3000", "3500", "4000"])
+    values, labels = charts.ticks(-97.75, 112, 300, 21)  # a margin overview with a limit crossed by 85 %
+    assert values[0] == -75.0 and labels[:4] == ["\N{MINUS SIGN}75", "\N{MINUS SIGN}50", "\N{MINUS SIGN}25", "0"]
+    assert charts.ticks(0, 0.0023, 380, 21)[1] == ["0.0000", "0.0005", "0.0010", "0.0015", "0.0020"]
+
+
+def test_long_text_wraps_at_spaces_and_inside_a_word_only_when_it_must():
+    title = "Main hoist winch of the harbour crane: torque against pressure differential"
+    assert charts.wrap(title, 1000, 8.5) == title  # fits: unchanged
+    lines = charts.wrap(title, 200, 8.5).split("\n")
+    assert lines == ["Main hoist winch of the harbour crane:", "torque against pressure differential"]
+    parts = charts.wrap("x" * 120, 100).split("\n")
+    assert "".join(parts) == "x" * 120 and all(charts.text_width(p) <= 100 for p in parts)
+
+
+def drawn_figures(monkeypatch) -> list:
+    """Every figure the charts draw from here on (drawn in this process)."""
+    figures = []
+    real = charts._svg
+    monkeypatch.setattr(charts, "_svg", lambda fig, fig_id: figures.append(fig) or real(fig, fig_id))
+    return figures
+
+
+def assert_inside(figures) -> None:
+    # The margins are worked out from measured text widths, not by a layout engine: check them by
+    # the extent of every artist as a renderer at 720 dpi sets it (hinting too small to matter).
+    from matplotlib.backends.backend_agg import FigureCanvasAgg
+
+    for fig in figures:
+        fig.set_dpi(720)
+        box = fig.get_tightbbox(FigureCanvasAgg(fig).get_renderer())  # inches
+        width, height = fig.get_size_inches()
+        assert box.x0 >= -0.5 / 72 and box.y0 >= -0.5 / 72, box
+        assert box.x1 <= width + 0.5 / 72 and box.y1 <= height + 0.5 / 72, box
+
+
+def test_example_report_charts_stay_inside_their_figures(monkeypatch):
+    from helpers import EXAMPLE
+    from specgen.fingerprint import Fingerprint
+    from specgen.pipeline import run_file
+    from specgen.present import chart_batch, report
+
+    monkeypatch.setattr(chart_batch, "FORK_FROM", 10**6)  # drawn here, where they can be looked at
+    figures = drawn_figures(monkeypatch)
+    report.render(run_file(EXAMPLE), fp=Fingerprint("0" * 64))
+    assert len(figures) == 18
+    assert_inside(figures)
+
+
+def test_everything_drawn_stays_inside_the_figure(monkeypatch):
+    figures = drawn_figures(monkeypatch)
+    torque(title="A very long drive title for the main hoist winch of the harbour crane: torque against "
+                 "pressure differential", y_unit="lbf*in", lines=[Line("Vg 28.00 in^3/rev", 4.1), Line("Vg 12", 1.8)],
+           points=[Point("p1", 10.0, 40.0), Point("lowering_fast", 4000.0, 16000.0, True)])
+    charts.speed_vs_flow("fig2", "Speed", x_unit="gpm", y_unit="rpm", lines=[Line("Vg 1", 230.0)],
+                         points=[Point("a_rather_long_duty_name", 0.2, 40.0), Point("b", 20.0, 4600.0)],
+                         limits=[Limit("maximum speed", "5000 rpm", 5000, "max"),
+                                 Limit("minimum speed", "3 rpm", 3, "min")])
+    charts.flow_by_mode("fig3", "Flow", unit="gpm", modes=["m1", "a_long_mode_name"],
+                        drives=["main_hoist_winch_left", "slew_drive_with_a_long_identifier", "d3"],
+                        flows=[[10, 20, 5], [100, 50, 50]], delivery=150.0, statuses=["pass", "fail"])
+    charts.margin_overview("fig4", "Margins", [
+        MarginRow("drive_with_a_quite_long_identifier duty_point: inlet vs pressure limit", -0.85, "fail", 0.1),
+        MarginRow("x" * 140, 0.05, "warn", 0.1), MarginRow("fan: speed vs min rating", 19.0, "pass")])
+    assert len(figures) == 4
+    assert_inside(figures)

@@ -8,10 +8,16 @@ never by colour alone.
 Determinism: the SVG hash salt is fixed, the metadata carries no date or creator, and every id in
 an SVG is prefixed with the figure's own id, so several charts inline in one page keep unique ids
 and the same input gives the same bytes.
+
+Speed: a report draws many charts, so each is drawn once, straight to the SVG canvas. Margins are
+fixed per chart from the measured widths of its tick labels, names and keys (text_width), ticks
+are set, not located, and title and axis labels are placed, not measured: a layout engine would
+draw every figure twice and measure every text again.
 """
 
 from __future__ import annotations
 
+import functools
 import io
 import re
 from dataclasses import dataclass
@@ -19,10 +25,11 @@ from typing import Sequence
 
 from specgen.units import significant
 
-# Plain engineering-document greys; hatches carry the distinction in print.
+# Plain engineering-document greys; hatches carry the distinction in print. Only line hatches:
+# a dotted or circled hatch is hundreds of little curves in every SVG tile (150 kB a chart).
 INK = "#000000"
 GREYS = ("#ffffff", "#d0d0d0", "#f2f2f2", "#a8a8a8", "#e4e4e4", "#bcbcbc", "#8c8c8c")
-HATCHES = ("", "///", "...", "xx", "\\\\\\", "++", "oo", "--", "||")
+HATCHES = ("", "///", "---", "xx", "\\\\\\", "++", "|||", "////", "xxx")
 WIDTH_IN = 6.4  # fits the text width of A4 and Letter with 18 mm margins
 HEIGHT_IN = 3.3
 
@@ -102,10 +109,123 @@ def _num(x: float) -> str:
     return significant(x)
 
 
-def _new_figure(height_in: float = HEIGHT_IN):
+# Fixed page furniture, in points, from the sizes in STYLE and matplotlib's default tick length
+# (3.5) and pad (3.5), axis label pad (4) and title pad (6). Margins are worked out from these and
+# the measured widths of the tick labels once per chart: a layout engine would measure every text
+# of the figure again in an extra drawing pass, which costs more than the rest of the drawing.
+TICK = 3.5 + 3.5
+TICK_TEXT = 7 * 1.25  # height of a line of 7 pt text, descenders included
+LABEL = 4 + 7.5 * 1.25 + 3  # axis label: pad, line, clearance to the edge
+TITLE_LINE = 8.5 * 1.25
+TITLE = TITLE_LINE + 6 + 3
+KEY_ROW = 17.0  # a one-row key below the axes: text line, border pads and its gap to the edge
+EDGE = 6.0
+
+
+@functools.lru_cache(maxsize=None)
+def _font(size: float, bold: bool):
+    """The font file the charts' text is laid out with (found once, in the charts' style)."""
+    import matplotlib
+    from matplotlib.font_manager import FontProperties, findfont
+
+    weight = "bold" if bold else "normal"
+    with matplotlib.rc_context(STYLE):
+        path = findfont(FontProperties(family="sans-serif", weight=weight))
+    return FontProperties(fname=path, size=size, weight=weight)
+
+
+SPARE = 1.04  # hinted renderers and a browser's own copy of the font set some texts this much wider
+
+
+@functools.lru_cache(maxsize=4096)
+def text_width(text: str, size: float = 7.0, bold: bool = False) -> float:
+    """The room in points to keep for ``text`` (its widest line) at ``size`` points: the font's own
+    advances, as the SVG backend lays text out by, and SPARE on top.
+
+    Example: "100" at 7 pt in DejaVu Sans: three digits of 0.636 em, 13.36 pt, so 13.9 pt of room."""
+    from matplotlib.textpath import text_to_path
+
+    return SPARE * max((text_to_path.get_text_width_height_descent(line, _font(size, bold), ismath=False)[0]
+                        for line in text.split("\n")), default=0.0)
+
+
+def wrap(text: str, width_pt: float, size: float = 7.0, bold: bool = False) -> str:
+    """``text`` broken into lines ("\\n") no wider than ``width_pt``: at spaces, and inside a word
+    only where the word alone is wider than a line. Text that fits comes back as it was."""
+    if text_width(text, size, bold) <= width_pt:
+        return text
+    lines, line = [], ""
+    for word in text.split():
+        while len(word) > 1 and text_width(word, size, bold) > width_pt:
+            if line:
+                lines.append(line)
+                line = ""
+            cut = max((k for k in range(1, len(word)) if text_width(word[:k], size, bold) <= width_pt), default=1)
+            lines.append(word[:cut])
+            word = word[cut:]
+        if line and text_width(f"{line} {word}", size, bold) <= width_pt:
+            line = f"{line} {word}"
+        else:
+            if line:
+                lines.append(line)
+            line = word
+    return "\n".join(lines + [line] if line else lines)
+
+
+def ticks(lo: float, hi: float, length_pt: float, per_tick_pt: float) -> tuple[list[float], list[str]]:
+    """Round tick values in [lo, hi] and their labels, about one per ``per_tick_pt`` of axis
+    (matplotlib's own spacing rule), with the fewest decimals that show every value exactly.
+
+    Example: ticks(0, 4400, 170, 14) -> [0, 500, ..., 4000] labelled "0" ... "4000"."""
+    from matplotlib.ticker import MaxNLocator
+
+    nbins = min(9, max(1, int(length_pt // per_tick_pt)))
+    span = hi - lo
+    vals = [float(v) + 0.0 for v in MaxNLocator(nbins=nbins, steps=[1, 2, 2.5, 5, 10]).tick_values(lo, hi)
+            if lo - 1e-9 * span <= v <= hi + 1e-9 * span]
+    decimals = next((d for d in range(7) if all(abs(round(v, d) - v) <= 1e-9 * max(1.0, abs(v)) for v in vals)), 6)
+    # matplotlib's own tick labels write a minus sign, not a hyphen
+    return vals, [f"{round(v, decimals) + 0.0:.{decimals}f}".replace("-", "\N{MINUS SIGN}") for v in vals]
+
+
+@dataclass
+class Frame:
+    """A figure with one axes placed by fixed margins (points), and the axes' size in points."""
+
+    fig: object
+    ax: object
+    width: float
+    height: float
+    left: float  # the left margin
+    title: str  # the title, broken into lines that fit the figure
+
+    def label(self, x_label: str, y_label: str = "") -> None:
+        """Title and axis labels at fixed places beside the tick labels the margins were made for;
+        left to itself, matplotlib measures every tick label again to place them."""
+        ax = self.ax
+        ax.set_title(self.title, loc="left", y=1.0)
+        ax.set_xlabel(x_label)
+        ax.xaxis.set_label_coords(0.5, -(TICK + TICK_TEXT + 4) / self.height)
+        if y_label:
+            ax.set_ylabel(y_label)
+            ax.yaxis.set_label_coords(-(self.left - LABEL + 4) / self.width, 0.5)
+
+
+def _frame(height_in: float, title: str, left: float, bottom: float, right: float = EDGE) -> Frame:
+    """A figure and its axes, with room above for ``title`` (in as many lines as it takes)."""
     from matplotlib.figure import Figure
 
-    return Figure(figsize=(WIDTH_IN, height_in), layout="constrained")
+    fig = Figure(figsize=(WIDTH_IN, height_in))
+    w_pt, h_pt = WIDTH_IN * 72, height_in * 72
+    title = wrap(title, w_pt - left - EDGE, STYLE["axes.titlesize"])
+    top = TITLE + TITLE_LINE * title.count("\n")
+    ax = fig.add_axes((left / w_pt, bottom / h_pt, 1 - (left + right) / w_pt, 1 - (bottom + top) / h_pt))
+    return Frame(fig, ax, w_pt - left - right, h_pt - bottom - top, left, title)
+
+
+def _left_for(labels: Sequence[str]) -> float:
+    """The left margin that holds the widest y tick label and the y axis label beside it."""
+    return TICK + max((text_width(t) for t in labels), default=0.0) + LABEL
 
 
 _ID = re.compile(r'\bid="([^"]+)"')
@@ -113,13 +233,13 @@ _HREF = re.compile(r'href="#([^"]+)"')
 _URL = re.compile(r"url\(#([^)]+)\)")
 
 
-def _inline_svg(fig, fig_id: str) -> str:
+def _svg(fig, fig_id: str) -> str:
     """Render ``fig`` to SVG markup for inline use with every internal id prefixed by ``fig_id``."""
-    import matplotlib
+    from matplotlib.backends.backend_svg import FigureCanvasSVG
 
     buf = io.StringIO()
-    with matplotlib.rc_context({**STYLE, "svg.id": fig_id}):
-        fig.savefig(buf, format="svg", metadata={"Date": None, "Creator": None})
+    # The SVG canvas itself, not savefig: no pyplot state, no second drawing pass for a layout engine.
+    FigureCanvasSVG(fig).print_svg(buf, metadata={"Date": None, "Creator": None})
     svg = buf.getvalue()
     svg = svg[svg.index("<svg"):]  # drop the XML declaration and DOCTYPE: not allowed inline in HTML
     svg = _ID.sub(lambda m: m.group(0) if m.group(1) == fig_id else f'id="{fig_id}-{m.group(1)}"', svg)
@@ -129,13 +249,22 @@ def _inline_svg(fig, fig_id: str) -> str:
     return svg.replace(f'id="{fig_id}"', f'id="{fig_id}" role="img" aria-labelledby="{fig_id}-alt"', 1)
 
 
-def _draw(fig_id: str, height_in: float, paint) -> str:
+def prepare() -> None:
+    """Import the drawing modules and find the fonts now, so that processes forked from this one
+    to draw charts start with them (specgen/present/chart_batch.py)."""
+    import matplotlib.backends.backend_svg  # noqa: F401
+    import matplotlib.figure  # noqa: F401
+
+    for bold in (False, True):
+        text_width("0", 7.0, bold)
+
+
+def _draw(fig_id: str, build) -> str:
+    """The SVG of the figure ``build()`` returns, built and drawn in the report's style."""
     import matplotlib
 
-    with matplotlib.rc_context(STYLE):
-        fig = _new_figure(height_in)
-        paint(fig)
-        return _inline_svg(fig, fig_id)
+    with matplotlib.rc_context({**STYLE, "svg.id": fig_id}):
+        return _svg(build(), fig_id)
 
 
 def _merge_limits(limits: Sequence[Limit], span: float) -> list[tuple[float, str, str]]:
@@ -157,8 +286,9 @@ def _merge_limits(limits: Sequence[Limit], span: float) -> list[tuple[float, str
     return out
 
 
-def _points(ax, points: Sequence[Point], span: tuple[float, float]) -> None:
-    """Duty points with their names; points that fall on one spot share one label."""
+def _points(ax, points: Sequence[Point], span: tuple[float, float], size_pt: tuple[float, float]) -> None:
+    """Duty points with their names; points that fall on one spot share one label. ``size_pt`` is
+    the axes' width and height, to see which names would run out of the axes."""
     groups: list[list[Point]] = []
     for p in points:
         near = next((g for g in groups if abs(g[0].x - p.x) <= 0.01 * span[0] and abs(g[0].y - p.y) <= 0.01 * span[1]),
@@ -167,17 +297,28 @@ def _points(ax, points: Sequence[Point], span: tuple[float, float]) -> None:
             groups.append([p])
         else:
             near.append(p)
-    for p in points:
-        if p.overrunning:
-            ax.plot([p.x], [p.y], linestyle="none", marker="s", markersize=5, markerfacecolor="white",
-                    markeredgecolor=INK, markeredgewidth=1.0, zorder=5)
-        else:
-            ax.plot([p.x], [p.y], linestyle="none", marker="o", markersize=4.5, color=INK, zorder=5)
+    for overrunning, look in ((False, {"marker": "o", "markersize": 4.5, "color": INK}),
+                              (True, {"marker": "s", "markersize": 5, "markerfacecolor": "white",
+                                      "markeredgecolor": INK, "markeredgewidth": 1.0})):
+        shown = [p for p in points if p.overrunning == overrunning]
+        if shown:  # one line artist of markers for each shape, not one for each point
+            ax.plot([p.x for p in shown], [p.y for p in shown], linestyle="none", zorder=5, **look)
     for k, g in enumerate(groups):
         # The lines through the points rise to the right: labels above-left or below-right of a point
-        # stay clear of them; alternate the two so neighbouring points keep readable labels.
-        dx, dy, ha, va = (-5, 4, "right", "bottom") if k % 2 == 0 else (5, -4, "left", "top")
-        ax.annotate(", ".join(p.label for p in g), (g[0].x, g[0].y), xytext=(dx, dy), textcoords="offset points",
+        # stay clear of them; alternate the two so neighbouring points keep readable labels. A label
+        # with no room on its side of the point goes to the other side (the one with more room if
+        # neither has enough), and a label set right of a point at the foot of the axes goes level
+        # with it, clear of the x axis' tick labels.
+        text = ", ".join(p.label for p in g)
+        x_pt, need = g[0].x / span[0] * size_pt[0], text_width(text) + 8
+        fits = {False: x_pt >= need, True: size_pt[0] - x_pt >= need}  # by side: right?
+        right = k % 2 == 1
+        if not fits[right]:
+            right = not right if fits[not right] else size_pt[0] - x_pt > x_pt
+        dx, dy, ha, va = (5, -4, "left", "top") if right else (-5, 4, "right", "bottom")
+        if right and g[0].y / span[1] * size_pt[1] < 12:
+            dx, dy, va = 6, 0, "center"
+        ax.annotate(text, (g[0].x, g[0].y), xytext=(dx, dy), textcoords="offset points",
                     ha=ha, va=va, fontsize=7, zorder=6, bbox=_CLEAR)
 
 
@@ -190,7 +331,8 @@ def _key(ax, line_label: str, points: Sequence[Point]) -> None:
     if any(p.overrunning for p in points):
         handles.append(Line2D([], [], marker="s", markersize=5, markerfacecolor="white", markeredgecolor=INK,
                               linestyle="none", label="overrunning duty point"))
-    ax.figure.legend(handles=handles, loc="outside lower center", ncol=len(handles))
+    # At the foot of the figure, in the row the margins keep for it (KEY_ROW).
+    ax.figure.legend(handles=handles, loc="lower center", bbox_to_anchor=(0.5, 0.0), ncol=len(handles))
 
 
 def _vertical_limits(ax, limits: Sequence[Limit], span: float) -> None:
@@ -241,21 +383,34 @@ def _line_text(lines: Sequence[Line], x_unit: str, y_unit: str) -> str:
     return "; ".join(f"{line.label}: {_num(line.slope)} {y_unit} per {x_unit}" for line in lines)
 
 
+def _numeric_frame(height_in: float, title: str, x_range: tuple[float, float], y_range: tuple[float, float],
+                   bottom: float) -> Frame:
+    """A frame whose margins hold the tick labels it will carry, with those ticks set."""
+    y_vals, y_labels = ticks(*y_range, height_in * 72 - bottom - TITLE, 7 * 2)
+    left = _left_for(y_labels)
+    x_vals, x_labels = ticks(*x_range, WIDTH_IN * 72 - left - EDGE, 7 * 3)
+    right = max(EDGE, text_width(x_labels[-1]) / 2 + 1) if x_labels else EDGE  # the last label's overhang
+    frame = _frame(height_in, title, left, bottom, right)
+    frame.ax.set_yticks(y_vals, y_labels)
+    frame.ax.set_xticks(x_vals, x_labels)
+    frame.ax.set_xlim(*x_range)
+    frame.ax.set_ylim(*y_range)
+    return frame
+
+
 def _line_chart(fig_id: str, title: str, *, x_label: str, y_label: str, x_max: float, y_max: float,
                 lines: Sequence[Line], points: Sequence[Point], paint_limits) -> str:
-    def paint(fig):
-        ax = fig.subplots()
+    def build():
+        frame = _numeric_frame(HEIGHT_IN, title, (0, x_max), (0, y_max), KEY_ROW + TICK + TICK_TEXT + LABEL)
+        ax = frame.ax
         _lines(ax, lines, x_max)
         paint_limits(ax)
-        _points(ax, points, (x_max, y_max))
+        _points(ax, points, (x_max, y_max), (frame.width, frame.height))
         _key(ax, lines[0].label if len(lines) == 1 else "constant displacement (named at the right)", points)
-        ax.set_xlim(0, x_max)
-        ax.set_ylim(0, y_max)
-        ax.set_xlabel(x_label)
-        ax.set_ylabel(y_label)
-        ax.set_title(title, loc="left")
+        frame.label(x_label, y_label)
+        return frame.fig
 
-    return _draw(fig_id, HEIGHT_IN, paint)
+    return _draw(fig_id, build)
 
 
 def torque_vs_pressure(fig_id: str, title: str, *, x_unit: str, y_unit: str, lines: Sequence[Line],
@@ -313,13 +468,20 @@ def _supply_line(ax, at: float, text: str) -> None:
                 ha="right", va="bottom", fontsize=7, bbox=_CLEAR)
 
 
-def _mode_axes(ax, title: str, modes: Sequence[str], y_max: float, y_label: str) -> None:
+def _mode_axes(title: str, modes: Sequence[str], y_max: float, y_label: str, right_pt: float = 0.0):
+    """Axes for bars by operating mode, ``right_pt`` of room kept at the right for a key."""
+    h_pt = HEIGHT_IN * 72
+    bottom = TICK + TICK_TEXT + LABEL
+    y_vals, y_labels = ticks(0, y_max, h_pt - bottom - TITLE, 7 * 2)
+    frame = _frame(HEIGHT_IN, title, _left_for(y_labels), bottom, EDGE + right_pt)
+    ax = frame.ax
+    ax.grid(axis="x", visible=False)
+    ax.set_yticks(y_vals, y_labels)
     ax.set_xticks(list(range(len(modes))), list(modes))
     ax.set_xlim(-0.6, len(modes) - 0.4)
     ax.set_ylim(0, y_max)
-    ax.set_xlabel("operating mode")
-    ax.set_ylabel(y_label)
-    ax.set_title(title, loc="left")
+    frame.label("operating mode", y_label)
+    return ax
 
 
 def flow_by_mode(fig_id: str, title: str, *, unit: str, modes: Sequence[str], drives: Sequence[str],
@@ -330,9 +492,11 @@ def flow_by_mode(fig_id: str, title: str, *, unit: str, modes: Sequence[str], dr
     y_max = 1.18 * max(totals + [delivery, 1e-9])
     statuses = list(statuses) if statuses else [None] * len(modes)
 
-    def paint(fig):
-        ax = fig.subplots()
-        ax.grid(axis="x", visible=False)
+    # The key of drives stands right of the axes: border pads, hatch swatch, its gap, the widest name.
+    key_pt = 7 * (0.5 + 2 * 0.4 + 2.2 + 0.8) + max([text_width(d) for d in drives] + [text_width("drive")])
+
+    def build():
+        ax = _mode_axes(title, modes, y_max, f"flow demand q [{unit}]", key_pt)
         xs = range(len(modes))
         bottoms = [0.0] * len(modes)
         for j, drive in enumerate(drives):
@@ -346,16 +510,16 @@ def flow_by_mode(fig_id: str, title: str, *, unit: str, modes: Sequence[str], dr
             bottoms = [b + h for b, h in zip(bottoms, heights)]
         _bar_tops(ax, xs, totals, statuses)
         _supply_line(ax, delivery, f"pump delivery {_num(delivery)} {unit}")
-        _mode_axes(ax, title, modes, y_max, f"flow demand q [{unit}]")
         ax.legend(loc="upper left", bbox_to_anchor=(1.0, 1.0), title="drive", title_fontsize=7, handlelength=2.2,
                   handleheight=1.4)
+        return ax.figure
 
     parts = []
     for mode, row, total, status in zip(modes, flows, totals, statuses):
         share = ", ".join(f"{d} {_num(q)}" for d, q in zip(drives, row) if q)
         parts.append(f"{mode}: {_num(total)} {unit}{_status_suffix(status).lower()} ({share})")
     alt = f"{title}. Pump delivery {_num(delivery)} {unit}. Demand by mode: " + "; ".join(parts) + "."
-    return Chart(fig_id, _draw(fig_id, HEIGHT_IN, paint), alt)
+    return Chart(fig_id, _draw(fig_id, build), alt)
 
 
 def power_by_mode(fig_id: str, title: str, *, unit: str, modes: Sequence[str], power: Sequence[float],
@@ -364,22 +528,22 @@ def power_by_mode(fig_id: str, title: str, *, unit: str, modes: Sequence[str], p
     y_max = 1.18 * max(list(power) + [available or 0.0, 1e-9])
     statuses = list(statuses) if statuses else [None] * len(modes)
 
-    def paint(fig):
-        ax = fig.subplots()
-        ax.grid(axis="x", visible=False)
+    def build():
+        ax = _mode_axes(title, modes, y_max, f"pump input power P_in [{unit}]")
         xs = range(len(modes))
         ax.bar(xs, power, 0.55, color=GREYS[1], hatch="///", edgecolor=INK, linewidth=0.6, zorder=3)
         _bar_tops(ax, xs, power, statuses)
         if available is not None:
             _supply_line(ax, available, f"prime mover {_num(available)} {unit}")
-        _mode_axes(ax, title, modes, y_max, f"pump input power P_in [{unit}]")
+        return ax.figure
 
     have = f"Prime mover {_num(available)} {unit}" if available is not None else "No prime mover power given"
     parts = "; ".join(f"{m}: {_num(p)} {unit}{_status_suffix(s).lower()}" for m, p, s in zip(modes, power, statuses))
-    return Chart(fig_id, _draw(fig_id, HEIGHT_IN, paint), f"{title}. {have}. Pump input power by mode: {parts}.")
+    return Chart(fig_id, _draw(fig_id, build), f"{title}. {have}. Pump input power by mode: {parts}.")
 
 
 MARGIN_CLIP = 1.0  # margins beyond 100 % of the limit are drawn at 100 % and labelled with their value
+MARGIN_NAMES = 0.55  # the most of the width the row names may take
 _MARGIN_LOOK = {"fail": (GREYS[6], "xxxx"), "warn": (GREYS[1], "////"), "pass": (GREYS[2], "")}
 
 
@@ -387,35 +551,70 @@ def margin_overview(fig_id: str, title: str, rows: Sequence[MarginRow]) -> Chart
     """Every margin as a horizontal bar in percent of its limit, smallest first, so crossed limits
     (left of the zero line) and warnings sit at the top; each bar carries its value and status."""
     ordered = sorted(rows, key=lambda r: (r.margin, r.label))
-    height = 0.9 + 0.17 * max(len(ordered), 3)
+    w_pt = WIDTH_IN * 72
+    # Row names may take MARGIN_NAMES of the width: longer ones are set smaller, down to 5.5 pt,
+    # and what is still too long goes onto more lines, in taller rows.
+    room = MARGIN_NAMES * w_pt - TICK - EDGE
+    size = 7.0
+    widest = max((text_width(r.label) for r in ordered), default=0.0)
+    if widest > room:
+        size = max(5.5, 7.0 * room / widest)
+    names = [wrap(r.label, room, size) for r in ordered]
+    lines = max([n.count("\n") + 1 for n in names] + [1])
+    height = 0.9 + (0.17 + 0.1 * (lines - 1)) * max(len(ordered), 3)
     x_min = min([-0.1] + [1.15 * r.margin for r in ordered])
 
-    def paint(fig):
-        ax = fig.subplots()
+    x_range = (x_min * 100, MARGIN_CLIP * 100 + 12)
+    shown = [min(r.margin, MARGIN_CLIP) * 100 for r in ordered]
+    labels = [f"{'> ' if r.margin > MARGIN_CLIP else ''}{_num(r.margin * 100)} %{_status_suffix(r.status)}"
+              for r in ordered]
+    inside = [w > 62 for w in shown]
+    starts = [max(w, 0, (r.warn or 0) * 100 + 0.8) + 2 for r, w in zip(ordered, shown)]  # right of bar and tick
+    bottom = TICK + TICK_TEXT + LABEL
+    left = TICK + max((text_width(n, size) for n in names), default=0.0) + EDGE
+    # Values written right of their bar may run past the axes: keep room for the longest overhang.
+    # A text starting at fraction f of the axes, t wide, fits when t <= (1 - f) * (w_pt - left - right) + right - EDGE.
+    right = EDGE
+    for r, text, start, ins in zip(ordered, labels, starts, inside):
+        f = (start - x_range[0]) / (x_range[1] - x_range[0])
+        if not ins and f > 0:
+            t = text_width(text, 6.5, r.status != "pass")
+            right = max(right, (t + EDGE - (1 - f) * (w_pt - left)) / f)
+
+    def build():
+        from matplotlib.transforms import offset_copy
+
+        frame = _frame(height, title, left, bottom, right)
+        ax = frame.ax
         ax.grid(axis="y", visible=False)
         ys = list(range(len(ordered)))
-        shown = [min(r.margin, MARGIN_CLIP) * 100 for r in ordered]
-        for y, r, w in zip(ys, ordered, shown):
-            face, hatch = _MARGIN_LOOK[r.status]
-            ax.barh(y, w, 0.7, color=face, hatch=hatch, edgecolor=INK, linewidth=0.5, zorder=3)
-            if r.warn is not None:
-                ax.plot([r.warn * 100], [y], marker="|", markersize=8, color=INK, markeredgewidth=1.0, zorder=4)
-            text = f"{'> ' if r.margin > MARGIN_CLIP else ''}{_num(r.margin * 100)} %{_status_suffix(r.status)}"
-            inside = w > 62
-            clear = max(w, 0, (r.warn or 0) * 100 + 0.8)  # start right of the bar and of the warning tick
-            ax.text(w - 1 if inside else clear + 2, y, text, va="center", ha="right" if inside else "left",
+        looks = [_MARGIN_LOOK[r.status] for r in ordered]
+        # One call for all the bars, one line of markers for all the warning ticks.
+        ax.barh(ys, shown, 0.7, color=[face for face, _ in looks], hatch=[hatch for _, hatch in looks],
+                edgecolor=INK, linewidth=0.5, zorder=3)
+        warned = [(r.warn * 100, y) for y, r in zip(ys, ordered) if r.warn is not None]
+        if warned:
+            ax.plot([x for x, _ in warned], [y for _, y in warned], linestyle="none", marker="|", markersize=8,
+                    color=INK, markeredgewidth=1.0, zorder=4)
+        for y, r, w, text, start, ins in zip(ys, ordered, shown, labels, starts, inside):
+            ax.text(w - 1 if ins else start, y, text, va="center", ha="right" if ins else "left",
                     fontsize=6.5, fontweight="bold" if r.status != "pass" else "normal", zorder=5,
-                    bbox=_CLEAR if inside else None)
+                    bbox=_CLEAR if ins else None)
         ax.axvline(0, color=INK, linewidth=1.2, zorder=4)
-        ax.set_yticks(ys, [r.label for r in ordered])
+        # Row names as plain texts beside the axes (a tick for each row would cost five artists).
+        beside = offset_copy(ax.get_yaxis_transform(), fig=frame.fig, x=-TICK, y=0.0, units="points")
+        for y, name in zip(ys, names):
+            ax.text(0.0, y, name, transform=beside, ha="right", va="center", fontsize=size, clip_on=False)
+        ax.set_yticks([])
         ax.set_ylim(len(ordered) - 0.4, -0.6)  # smallest margin at the top
-        ax.set_xlim(x_min * 100, MARGIN_CLIP * 100 + 12)
-        ax.set_xlabel("margin to the limit [% of the limit]")
-        ax.set_title(title, loc="left")
+        ax.set_xticks(*ticks(*x_range, frame.width, 7 * 3))
+        ax.set_xlim(*x_range)
+        frame.label("margin to the limit [% of the limit]")
+        return frame.fig
 
     worst = ordered[:5]
     alt = (f"{title}. {len(ordered)} margins, "
            f"{sum(r.status == 'fail' for r in ordered)} crossed and {sum(r.status == 'warn' for r in ordered)} "
            f"within the warning level. Smallest: "
            + "; ".join(f"{r.label} {_num(r.margin * 100)} % ({r.status})" for r in worst) + ".")
-    return Chart(fig_id, _draw(fig_id, height, paint), alt)
+    return Chart(fig_id, _draw(fig_id, build), alt)

@@ -1,7 +1,9 @@
 """The review report: a static HTML page (inline CSS and SVG, no script) built from one Outcome.
 
 ``context(outcome, ...)`` turns the Results, the model and the spec as entered into plain values
-for the templates in report_templates/ (Jinja2, autoescape on); ``render`` renders them;
+for the templates in report_templates/ (Jinja2, autoescape on), asking for the charts as it goes;
+``render`` has the charts drawn (chart_batch.py: in worker processes where that pays) while the
+templates load, and renders them;
 ``write`` renders every spec into a temporary folder beside OUTDIR and only then moves the files
 into place, so a failed run leaves an earlier report untouched.
 
@@ -26,7 +28,8 @@ from specgen.cautions import CAUTIONS
 from specgen.errors import Location, Problem, SpecError
 from specgen.fingerprint import Fingerprint, fingerprint
 from specgen.pipeline import Outcome
-from specgen.present import charts
+from specgen.present import chart_batch, charts
+from specgen.present.chart_batch import Batch
 from specgen.present.markdown_text import to_html
 from specgen.present.values import assumed_inputs, convert, format_si, significant
 from specgen.resources import data_dir
@@ -321,7 +324,7 @@ def _displacement(r) -> float | None:
     return next((i.value for i in r.values["relief_torque"].inputs if i.symbol == "Vg"), None)
 
 
-def _drive_charts(o: Outcome, drive, duties, system: str, fig_n) -> list[charts.Chart]:
+def _drive_charts(o: Outcome, drive, duties, system: str, fig_n, draw: Batch) -> list:
     """Torque against pressure differential and speed against flow for one drive.
 
     The displacement lines are the shown results' own quotients: T_relief / (p_relief - p_out)
@@ -359,9 +362,10 @@ def _drive_charts(o: Outcome, drive, duties, system: str, fig_n) -> list[charts.
         if value is not None:
             limits.append(charts.Limit(name, show(value, "pressure", system), at_dp(value), style))
     overrun = [r.direction == "overrunning" for r in duties]
-    torque = charts.torque_vs_pressure(
-        fig_n(), f"{drive.title}: torque against pressure differential", x_unit=unit["pressure"],
-        y_unit=unit["torque"], lines=list(t_lines.values()) or [charts.Line("no line", 0.0)], limits=limits,
+    torque = draw(
+        charts.torque_vs_pressure, fig_n(), f"{drive.title}: torque against pressure differential",
+        x_unit=unit["pressure"], y_unit=unit["torque"], lines=list(t_lines.values()) or [charts.Line("no line", 0.0)],
+        limits=limits,
         points=[charts.Point(r.duty, _plain(r["pressure_differential"], "pressure", system),
                              _plain(r["motor_torque"], "torque", system), ov) for r, ov in zip(duties, overrun)])
     speed_limits = []
@@ -369,15 +373,16 @@ def _drive_charts(o: Outcome, drive, duties, system: str, fig_n) -> list[charts.
         value = getattr(rating, key)
         if value is not None:
             speed_limits.append(charts.Limit(name, show(value, "speed", system), _plain(value, "speed", system), style))
-    speed = charts.speed_vs_flow(
-        fig_n(), f"{drive.title}: speed against flow", x_unit=unit["flow"], y_unit=unit["speed"],
+    speed = draw(
+        charts.speed_vs_flow, fig_n(), f"{drive.title}: speed against flow",
+        x_unit=unit["flow"], y_unit=unit["speed"],
         lines=list(n_lines.values()) or [charts.Line("no line", 0.0)], limits=speed_limits,
         points=[charts.Point(r.duty, _plain(r["flow_demand"], "flow", system), _plain(r["motor_speed"], "speed", system),
                              ov) for r, ov in zip(duties, overrun)])
     return [torque, speed], show(p_out, "pressure", system)
 
 
-def _supply_charts(o: Outcome, sup, modes, system: str, fig_n) -> list[charts.Chart]:
+def _supply_charts(o: Outcome, sup, modes, system: str, fig_n, draw: Batch) -> list:
     q_unit, w_unit = convert(0.0, "flow", system)[1], convert(0.0, "power", system)[1]
     by_check = {(c.id, c.supply, c.mode): c.status for c in o.results.checks if c.supply}
     titles = {m.id: m.id for m in o.machine.modes}
@@ -389,13 +394,14 @@ def _supply_charts(o: Outcome, sup, modes, system: str, fig_n) -> list[charts.Ch
     flows = [[sum(_plain(c.flow, "flow", system) for c in r.contributions if c.drive == d) for d in drives]
              for r in modes]
     names = [titles[r.mode] for r in modes]
-    flow = charts.flow_by_mode(
-        fig_n(), f"{sup.title}: flow demand by operating mode", unit=q_unit, modes=names, drives=drives, flows=flows,
+    flow = draw(
+        charts.flow_by_mode, fig_n(), f"{sup.title}: flow demand by operating mode", unit=q_unit, modes=names,
+        drives=drives, flows=flows,
         delivery=_plain(modes[0]["pump_delivery"], "flow", system),
         statuses=[by_check.get(("pump_flow", sup.id, r.mode)) for r in modes])
     available = modes[0].values.get("prime_mover_power")
-    power = charts.power_by_mode(
-        fig_n(), f"{sup.title}: pump input power by operating mode", unit=w_unit, modes=names,
+    power = draw(
+        charts.power_by_mode, fig_n(), f"{sup.title}: pump input power by operating mode", unit=w_unit, modes=names,
         power=[_plain(r["pump_input_power"], "power", system) for r in modes],
         available=_plain(available.value, "power", system) if available else None,
         statuses=[by_check.get(("prime_mover_power", sup.id, r.mode)) for r in modes])
@@ -422,7 +428,7 @@ def margin_rows(o: Outcome) -> list[charts.MarginRow]:
     return rows
 
 
-def _margin_charts(o: Outcome, fig_n) -> list[charts.Chart]:
+def _margin_charts(o: Outcome, fig_n, draw: Batch) -> list:
     rows = sorted(margin_rows(o), key=lambda r: (r.margin, r.label))
     count = -(-len(rows) // MARGIN_ROWS_PER_CHART)  # charts needed; rows shared evenly between them
     size = -(-len(rows) // max(count, 1))
@@ -430,7 +436,7 @@ def _margin_charts(o: Outcome, fig_n) -> list[charts.Chart]:
     out = []
     for k, part in enumerate(parts, start=1):
         suffix = f" (part {k} of {len(parts)})" if len(parts) > 1 else ""
-        out.append(charts.margin_overview(fig_n(), f"Pressure and speed margins, smallest first{suffix}", part))
+        out.append(draw(charts.margin_overview, fig_n(), f"Pressure and speed margins, smallest first{suffix}", part))
     return out
 
 
@@ -495,7 +501,7 @@ def _trace_block(anchor: str, title: str, values: dict, system: str, checks: lis
             "checks": [c for c in checks if c["target"] == anchor]}
 
 
-def _supply_context(o: Outcome, sup, system: str, checks: list[dict], fig_n) -> dict:
+def _supply_context(o: Outcome, sup, system: str, checks: list[dict], fig_n, draw: Batch) -> dict:
     m, r = o.machine, o.results
     modes = [x for x in r.supply_modes if x.supply == sup.id]
     data, sp = o.source.data, ("supplies", sup.id)
@@ -530,15 +536,15 @@ def _supply_context(o: Outcome, sup, system: str, checks: list[dict], fig_n) -> 
         "id": sup.id, "anchor": f"supply-{slug(sup.id)}", "title": sup.title, "entered": entered,
         "table": _table(modes, SUPPLY_COLUMNS, system, ["Mode"], [[x.mode] for x in modes]),
         "drives": [{"id": d.id, "anchor": f"drive-{slug(d.id)}"} for d in m.drives if d.supply == sup.id],
-        "charts": _supply_charts(o, sup, modes, system, fig_n) if modes else [],
+        "charts": _supply_charts(o, sup, modes, system, fig_n, draw) if modes else [],
         "traces": traces, "checks": [c for c in checks if c["target"] == f"supply-{slug(sup.id)}"],
     }
 
 
-def _drive_context(o: Outcome, d, system: str, checks: list[dict], fig_n) -> dict:
+def _drive_context(o: Outcome, d, system: str, checks: list[dict], fig_n, draw: Batch) -> dict:
     r = o.results
     duties = [x for x in r.duties if x.drive == d.id]
-    charts_, p_out = _drive_charts(o, d, duties, system, fig_n) if duties else ([], None)
+    charts_, p_out = _drive_charts(o, d, duties, system, fig_n, draw) if duties else ([], None)
     entered = _drive_entered(o, d, system)
     entered += _extra_rows(o.source.data, ("drives", d.id), entered, skip=("title", "notes", "duty_points"))
     traces = []
@@ -560,8 +566,12 @@ def _drive_context(o: Outcome, d, system: str, checks: list[dict], fig_n) -> dic
     }
 
 
-def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: list | None = None) -> dict:
-    """Everything the report template shows, as plain values and formatted text."""
+def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: list | None = None,
+            draw: Batch | None = None) -> dict:
+    """Everything the report template shows, as plain values and formatted text.
+
+    The charts are asked for from ``draw`` and left for the caller to draw (Batch.start, finish);
+    without it they are drawn here, before this returns."""
     m, r = o.machine, o.results
     system = m.display_units
     fig_counter = iter(range(1, 10_000))
@@ -571,12 +581,18 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
 
     checks = _checks(o, system)
     problems = sorted((c for c in checks if c["status"] != "pass"), key=lambda c: (STATUS_ORDER[c["status"]], c["n"]))
-    margin_charts = _margin_charts(o, fig_n)
-    supplies = [_supply_context(o, sup, system, checks, fig_n) for sup in m.supplies]
-    drives = [_drive_context(o, d, system, checks, fig_n) for d in m.drives]
+    # The charts are asked for while the context is built and drawn together: many of them in
+    # parallel (chart_batch.py), in the same order and to the same bytes.
+    own_batch = draw is None
+    draw = Batch() if own_batch else draw
+    margin_charts = _margin_charts(o, fig_n, draw)
+    supplies = [_supply_context(o, sup, system, checks, fig_n, draw) for sup in m.supplies]
+    drives = [_drive_context(o, d, system, checks, fig_n, draw) for d in m.drives]
     mode_traces = [_trace_block(f"mode-{slug(x.mode)}", f"Mode {x.mode}", x.values, system, checks)
                    for x in r.modes if x.values]
     fluid_values = r.fluid
+    if own_batch:
+        draw.draw()
     fp_footer = f"{m.title[:80]} - rev {m.revision} - spec sha256 {fp.short}"
     return {
         "machine": {"id": m.id, "title": m.title, "revision": m.revision, "units": system,
@@ -652,11 +668,17 @@ def render(o: Outcome, *, fp: Fingerprint | None = None, date: str | None = None
     from markupsafe import Markup
 
     fp = fp or fingerprint(o.source.raw, _spec_path(o))
-    ctx = context(o, fp=fp, date=date, reviews=reviews)
+    batch = Batch()
+    ctx = context(o, fp=fp, date=date, reviews=reviews, draw=batch)
+    batch.start()
+    try:  # the templates load while the charts are drawn
+        template = environment().get_template("report.html")
+    finally:
+        batch.finish()
     ctx["description_html"] = Markup(ctx["description_html"])
     for d in ctx["drives"]:
         d["notes_html"] = Markup(d["notes_html"])
-    return environment().get_template("report.html").render(**ctx)
+    return template.render(**ctx)
 
 
 def render_index(entries: list[dict], date: str | None) -> str:
@@ -684,6 +706,12 @@ def report_date(option: str | None, epoch: str | None) -> str | None:
             raise SpecError([Problem(Location("SOURCE_DATE_EPOCH"), "",
                                      f"'{epoch}' is not a whole number of seconds since 1970-01-01")]) from None
     return None
+
+
+def start_drawing() -> bool:
+    """Start the chart workers now (chart_batch.start_workers), before the specs are read and
+    checked, so that they import matplotlib meanwhile on the other cores; ``write`` stops them."""
+    return chart_batch.start_workers()
 
 
 @dataclass
@@ -770,4 +798,5 @@ def write(outcomes: list[Outcome], outdir: str | Path, *, date: str | None = Non
                 notes.append(f"removed {stale} from an earlier run: it no longer matches this report")
         return Written([target / p for p in rel], notes)
     finally:
+        chart_batch.stop_workers()
         shutil.rmtree(staging, ignore_errors=True)
