@@ -6,7 +6,7 @@ from __future__ import annotations
 import copy
 
 import jsonschema
-from helpers import example_data
+from helpers import example_data, value_paths
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
@@ -42,18 +42,8 @@ _INLINED = jsonschema.Draft202012Validator(inline_local_refs(schema()))
 _BAD = [None, 12, -1, 0.5, True, "x", "12 furlongs", [], {}, {"zz": 1}, [1, "a"]]
 
 
-def _paths(node, here=()):
-    yield here
-    if isinstance(node, dict):
-        for k, v in node.items():
-            yield from _paths(v, here + (k,))
-    elif isinstance(node, list):
-        for i, v in enumerate(node):
-            yield from _paths(v, here + (i,))
-
-
 _DEMO = example_data()
-_ALL = [p for p in _paths(_DEMO) if p]
+_ALL = [p for p in value_paths(_DEMO) if p]
 
 
 def _messages(validator, data) -> list[tuple]:
