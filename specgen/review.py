@@ -24,6 +24,8 @@ float, both rounded to 12 significant figures (``spec.content.normalised``). Com
 order, quoting and unit spelling of an equal value ("250 bar", "25 MPa", "25000 kPa") do not
 change it; any changed value, text, added or removed key does. "3626 psi" is 250.003 bar: a
 different value, so a different fingerprint, which errs on the side of asking for a new review.
+A spec that names sizing parts files hashes {"spec": N, "parts_files": {name: loaded data}}
+instead, so a change to the shop's stock list asks for a new review too.
 
 This records a review; it is not a signature.
 """
@@ -82,10 +84,36 @@ def is_reviews_file(path: str | Path) -> bool:
     return str(path).endswith(REVIEWS_SUFFIX)
 
 
-def content_fingerprint(data: dict) -> str:
-    """sha256 hex of the spec's normalised content (see the module text for the exact rule)."""
-    text = json.dumps(normalised(data), sort_keys=True, separators=(",", ":"), ensure_ascii=False)
+def content_fingerprint(data: dict, parts: dict | None = None) -> str:
+    """sha256 hex of the spec's normalised content (see the module text for the exact rule).
+
+    ``parts``: the loaded data of the parts files the spec names, by the name it gives them; a
+    spec that names none hashes exactly as its content alone.
+    """
+    body = normalised(data) if not parts else {"spec": normalised(data), "parts_files": parts}
+    text = json.dumps(body, sort_keys=True, separators=(",", ":"), ensure_ascii=False)
     return hashlib.sha256(text.encode("utf-8")).hexdigest()
+
+
+def named_parts_files(source: Source) -> dict:
+    """The loaded data of every sizing parts file ``source`` names, so changing stock needs a review.
+
+    Read only after the spec was built, which has already refused files outside its folder tree.
+    """
+    from specgen.spec.build_depth import resolve_inside
+    from specgen.spec.load import load_file
+
+    sizing = source.data.get("sizing")
+    name = sizing.get("parts_file") if isinstance(sizing, dict) else None
+    if not isinstance(name, str):
+        return {}
+    target, _ = resolve_inside(source.name, name, allow_outside=True)
+    return {name: json.loads(json.dumps(load_file(target).data))} if target.is_file() else {}
+
+
+def spec_fingerprint(source: Source) -> str:
+    """The review fingerprint of a loaded spec: its content and the parts files it names."""
+    return content_fingerprint(source.data, named_parts_files(source))
 
 
 def review_date(given: str | None = None, environ=os.environ) -> str:
@@ -163,7 +191,7 @@ def append_review(spec_path: str | Path, source: Source, machine_revision: str, 
     if len(remarks) > MAX_REMARKS:
         raise SpecError([Problem(Location("--remarks"), "", f"remarks are limited to {MAX_REMARKS} characters")])
     record = Review(name=_one_line("--by", name, MAX_NAME), role=_one_line("--role", role, MAX_NAME),
-                    date=review_date(when), verdict=verdict, fingerprint=content_fingerprint(source.data),
+                    date=review_date(when), verdict=verdict, fingerprint=spec_fingerprint(source),
                     machine_revision=machine_revision, remarks=remarks.strip())
     target = reviews_path(spec_path)
     old = read_reviews(target)
@@ -237,7 +265,7 @@ def status(spec_path: str | Path, source: Source) -> ReviewStatus:
     records = read_reviews(target)
     if not records:  # nothing to match: spare a large spec the second parse of every quantity
         return ReviewStatus("unreviewed", None, str(target), None, None)
-    current = content_fingerprint(source.data)
+    current = spec_fingerprint(source)
     matching = next((r for r in reversed(records) if r.fingerprint == current), None)
     last = records[-1] if records else None
     if matching:
@@ -252,7 +280,7 @@ def reviews_for_report(spec_path: str | Path, source: Source) -> list[dict]:
 
     Each: name, role, date, verdict, remarks, fingerprint, matches_current (bool).
     """
-    current = content_fingerprint(source.data)
+    current = spec_fingerprint(source)
     return [{"name": r.name, "role": r.role, "date": r.date, "verdict": r.verdict, "remarks": r.remarks,
              "fingerprint": r.fingerprint, "matches_current": r.fingerprint == current}
             for r in read_reviews(reviews_path(spec_path))]

@@ -164,3 +164,24 @@ def test_report_lists_reviews_and_marks_stale_ones(tmp_path):
     assert section.count("NO LONGER MATCHES") == 2
     # the sign-off block keeps its empty lines for ink
     assert "signature" in html[html.index('id="signoff"'):].lower()
+
+
+def test_a_change_to_the_named_parts_file_needs_a_new_review(tmp_path):
+    import shutil
+
+    from helpers import ROOT
+
+    for name in ("log_deck.yaml", "shop_motors.parts.yaml"):
+        shutil.copy(ROOT / "example_specs" / name, tmp_path / name)
+    spec = tmp_path / "log_deck.yaml"
+    assert run_cli("review", spec, *REVIEW)[0] == 0
+    assert run_cli("check", "--quiet", "--require-review", spec)[0] == 0
+    parts = tmp_path / "shop_motors.parts.yaml"
+    parts.write_text(parts.read_text(encoding="utf-8") + "\n# restocked\n", encoding="utf-8")
+    assert run_cli("check", "--quiet", "--require-review", spec)[0] == 0  # a comment is no change
+    data = yaml.safe_load(parts.read_text(encoding="utf-8"))
+    kind = next(iter(data["motors"]))
+    data["motors"][kind] = data["motors"][kind][:-1]  # the largest stocked size is gone
+    parts.write_text(yaml.safe_dump(data, sort_keys=False), encoding="utf-8")
+    code, out, _ = run_cli("check", "--quiet", "--require-review", spec)
+    assert code == 1 and "changed since the last review" in out
