@@ -81,6 +81,8 @@ def _review_parser(sub) -> None:
     r.add_argument("--verdict", required=True, choices=VERDICTS)
     r.add_argument("--remarks", default="", metavar="TEXT")
     r.add_argument("--date", metavar="YYYY-MM-DD", help="review date [SOURCE_DATE_EPOCH, else today]")
+    r.add_argument("--allow-outside-files", action="store_true",
+                   help="let the spec name files (a sizing parts file) outside its own folder tree")
 
 
 def _report_parser(sub) -> None:
@@ -171,7 +173,7 @@ def cmd_review(args) -> int:
     from specgen.pipeline import run_file
     from specgen.review import append_review, reviews_path
 
-    o = run_file(args.spec)
+    o = run_file(args.spec, allow_outside_files=args.allow_outside_files)
     r = append_review(args.spec, o.source, o.machine.revision, args.by, args.role, args.verdict,
                       args.remarks, args.date)
     print(f"recorded in {reviews_path(args.spec)}: {r.verdict} by {r.who} on {r.date} "
