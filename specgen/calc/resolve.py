@@ -32,11 +32,6 @@ def back_pressure(drive: Drive, sup: Supply) -> float:
     return drive.back_pressure if drive.back_pressure is not None else sup.return_pressure
 
 
-def working_displacement(drive: Drive) -> float:
-    """Largest displacement of the motor as given (None when the spec leaves it to sizing)."""
-    return drive.motor.displacement_max
-
-
 def _gear(drive: Drive) -> tuple[float, Ratio]:
     return (drive.gear.ratio, drive.gear.efficiency) if drive.gear else (1.0, Ratio(1.0))
 

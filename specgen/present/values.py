@@ -1,17 +1,10 @@
-"""Shared helpers for showing SI values in the machine's display system."""
+"""Display helpers shared by the outputs: unit conversion and the list of assumed values."""
 
 from __future__ import annotations
 
-from specgen.trace import Value
 from specgen.units import convert, format_si, significant
 
-__all__ = ["convert", "format_si", "significant", "shown", "assumed_inputs"]
-
-
-def shown(value: Value, system: str) -> dict:
-    """A value as {value, unit} in the display system, with its SI figure beside it."""
-    number, unit = convert(value.value, value.kind, system)
-    return {"value": number, "unit": unit, "text": f"{significant(number)} {unit}"}
+__all__ = ["convert", "format_si", "significant", "assumed_inputs"]
 
 
 def assumed_inputs(machine) -> list[dict]:
