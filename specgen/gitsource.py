@@ -20,7 +20,7 @@ import subprocess
 from pathlib import Path
 
 from specgen.errors import Location, Problem, SpecError
-from specgen.spec.load import MAX_BYTES, Source, load_file, load_text
+from specgen.intake.read import MAX_BYTES, Source, load_file, load_text
 
 GIT_TIMEOUT_S = 60.0
 

@@ -5,13 +5,13 @@ from __future__ import annotations
 from dataclasses import dataclass
 from pathlib import Path
 
-from specgen.calc.resolve import resolve
+from specgen.resolve.machine import resolve
 from specgen.checks import run_checks
 from specgen.heap import few_full_collections
 from specgen.results import Results
-from specgen.spec.load import Source, load_file, load_text
-from specgen.spec.model import Machine
-from specgen.spec.validate import build
+from specgen.intake.read import Source, load_file, load_text
+from specgen.intake.model import Machine
+from specgen.intake.validate import build
 
 
 @dataclass(frozen=True)

@@ -43,8 +43,8 @@ import yaml
 
 from specgen.errors import Location, Problem, SpecError
 from specgen.output import write_atomic
-from specgen.spec.content import normalised
-from specgen.spec.load import Source, load_text
+from specgen.intake.content import normalised
+from specgen.intake.read import Source, load_text
 
 REVIEWS_SUFFIX = ".reviews.yaml"
 REVIEW_FORMAT = 1
@@ -100,8 +100,8 @@ def named_parts_files(source: Source) -> dict:
 
     Read only after the spec was built, which has already refused files outside its folder tree.
     """
-    from specgen.spec.build_depth import resolve_inside
-    from specgen.spec.load import load_file
+    from specgen.intake.build_depth import resolve_inside
+    from specgen.intake.read import load_file
 
     sizing = source.data.get("sizing")
     name = sizing.get("parts_file") if isinstance(sizing, dict) else None

@@ -9,7 +9,7 @@ import pytest
 from helpers import minimal
 from specgen.errors import SpecError
 from specgen.pipeline import evaluate
-from specgen.spec.load import Source
+from specgen.intake.read import Source
 
 
 def outcome(data):

@@ -10,7 +10,7 @@ import yaml
 from helpers import minimal, run_cli, write_spec
 from specgen.errors import SpecError
 from specgen.pipeline import evaluate, run_file
-from specgen.spec.load import Source
+from specgen.intake.read import Source
 
 
 def outcome(data):

@@ -12,7 +12,7 @@ from helpers import EXAMPLE, ROOT, minimal, run_cli
 from specgen.diff import compare, diff_inputs
 from specgen.pipeline import run_text
 from specgen.present import diff_out
-from specgen.spec.content import fields
+from specgen.intake.content import fields
 
 import yaml
 
@@ -50,7 +50,7 @@ def test_kinds_come_from_the_schema():
 
 
 def test_quantity_of_no_single_kind_is_compared_in_a_kind_both_read_as():
-    from specgen.spec.content import common_kind
+    from specgen.intake.content import common_kind
 
     assert common_kind("18 %", "18%") == ("ratio", pytest.approx(0.18), pytest.approx(0.18))
     assert common_kind("250 bar", "3626 psi")[0] == "pressure"

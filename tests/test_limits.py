@@ -1,6 +1,6 @@
 """Hostile sizes and shapes are refused within the stated limits, in bounded memory, with one clear line.
 
-Limits (specgen/spec/load.py and validate.py, stated in README "Limits and safety"): file size
+Limits (specgen/intake/read.py and validate.py, stated in README "Limits and safety"): file size
 MAX_BYTES, values MAX_NODES (as written and after alias expansion), nesting MAX_DEPTH, and counts
 of supplies, drives, modes and duty points. Memory is measured (tracemalloc in-process, or the
 child's own peak resident size), never the wall clock.
@@ -17,8 +17,8 @@ import tracemalloc
 import pytest
 
 from helpers import ROOT, run_cli
-from specgen.spec.load import MAX_BYTES, MAX_DEPTH, MAX_NODES
-from specgen.spec.validate import MAX_COUNT
+from specgen.intake.read import MAX_BYTES, MAX_DEPTH, MAX_NODES
+from specgen.intake.validate import MAX_COUNT
 
 HEAD = ("format: 1\nmachine: {id: big, title: Big, revision: A}\n"
         "supplies:\n  main: {pump: {displacement: 40 cm^3, shaft_speed: 1500 rpm}, relief_setting: 250 bar}\n")
@@ -179,7 +179,7 @@ def test_a_device_is_refused():
 
 
 def test_readme_states_the_limits_the_code_enforces():
-    from specgen.spec.validate import MAX_DUTY_POINTS
+    from specgen.intake.validate import MAX_DUTY_POINTS
 
     text = (ROOT / "README.md").read_text(encoding="utf-8")
     section = text[text.index("## Limits and safety"):]

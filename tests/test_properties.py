@@ -9,7 +9,7 @@ from helpers import EXAMPLE, example_data, minimal
 from specgen import units
 from specgen.calc import motor
 from specgen.pipeline import evaluate
-from specgen.spec.load import Source
+from specgen.intake.read import Source
 
 pos = st.floats(min_value=1e-3, max_value=1e3, allow_nan=False, allow_infinity=False)
 eff = st.floats(min_value=0.5, max_value=1.0)

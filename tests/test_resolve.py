@@ -6,7 +6,7 @@ import pytest
 
 from helpers import EXAMPLE, minimal
 from specgen.pipeline import run_file
-from specgen.spec.load import Source
+from specgen.intake.read import Source
 from specgen.pipeline import evaluate
 
 

@@ -7,7 +7,7 @@ import yaml
 
 from helpers import minimal, run_cli, write_spec
 from specgen.review import content_fingerprint, read_reviews, review_date, reviews_for_report, reviews_path
-from specgen.spec.load import load_file
+from specgen.intake.read import load_file
 
 REVIEW = ("--by", "A. Checker", "--role", "checking engineer", "--verdict", "approved", "--date", "2025-03-14")
 

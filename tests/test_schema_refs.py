@@ -10,9 +10,9 @@ from helpers import example_data, value_paths
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from specgen.spec.schema_refs import inline_local_refs
-from specgen.spec import validate
-from specgen.spec.validate import schema
+from specgen.intake.schema_refs import inline_local_refs
+from specgen.intake import validate
+from specgen.intake.validate import schema
 
 
 def test_refs_are_replaced_and_siblings_kept_beside_them():

@@ -14,9 +14,9 @@ from functools import lru_cache
 from specgen import units
 from specgen.errors import Problem, SpecError
 from specgen.resources import data_dir
-from specgen.spec import build_depth, defaults
-from specgen.spec.load import Source, problem
-from specgen.spec.model import (
+from specgen.intake import build_depth, defaults
+from specgen.intake.read import Source, problem
+from specgen.intake.model import (
     Drive, DutyPoint, Fluid, GearStage, Machine, Mode, Motor, Pump, Rating, Ratio, Supply, Thresholds,
 )
 
@@ -50,7 +50,7 @@ def schema() -> dict:
 def _validator():
     import jsonschema
 
-    from specgen.spec.schema_refs import inline_local_refs
+    from specgen.intake.schema_refs import inline_local_refs
 
     # Same verdicts and messages as the schema as written, without a reference lookup per value.
     return jsonschema.Draft202012Validator(inline_local_refs(schema()))

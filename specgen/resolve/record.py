@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from specgen.spec.model import Ratio
+from specgen.intake.model import Ratio
 from specgen.trace import Input, Value
 
 

@@ -17,8 +17,8 @@ from pathlib import Path
 from specgen.calc import fluid as fluid_calc
 from specgen.calc import loads
 from specgen.errors import Problem, SpecError
-from specgen.spec import defaults
-from specgen.spec.model import (
+from specgen.intake import defaults
+from specgen.intake.model import (
     BeltLoad, Cooler, Drive, DutyPoint, Fluid, Inertia, Line, Lines, Sizing, SpeedSquaredLoad, Supply,
     WheelLoad, WinchLoad,
 )
@@ -337,7 +337,7 @@ def resolve_inside(spec_name: str, relative: str, allow_outside: bool) -> tuple[
 
 
 def _parts_file(b, name: str, here: tuple, allow_outside: bool) -> dict | None:
-    from specgen.spec.load import load_file
+    from specgen.intake.read import load_file
 
     target, refused = resolve_inside(b.source.name, name, allow_outside)
     if refused:
@@ -373,7 +373,7 @@ def _parts_schema_problems(parts) -> list[Problem]:
     import jsonschema
 
     from specgen.resources import data_dir
-    from specgen.spec import validate
+    from specgen.intake import validate
 
     schema = json.loads((data_dir("schemas") / PARTS_SCHEMA_FILE).read_text(encoding="utf-8"))
     out = []

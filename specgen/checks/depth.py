@@ -10,7 +10,7 @@ from typing import Callable, Iterator
 
 from specgen.calc.lines import line_velocity_limits
 from specgen.results import Check, Results
-from specgen.spec.model import Machine
+from specgen.intake.model import Machine
 
 Fmt = Callable[[float, str], str]
 

@@ -20,10 +20,10 @@ from __future__ import annotations
 import math
 
 from specgen.calc import heat, supply as pump
-from specgen.calc.record import Record, eff
-from specgen.calc.resolve_lines import line_values
+from specgen.resolve.record import Record, eff
+from specgen.resolve.lines import line_values
 from specgen.results import Contribution, ModeResult, SupplyModeResult, SupplyResult
-from specgen.spec.model import Machine, Supply
+from specgen.intake.model import Machine, Supply
 from specgen.trace import Input, Value, given
 
 SRC_PUMP = "positive-displacement pump relations (fluid-power textbook)"

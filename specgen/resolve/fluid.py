@@ -6,9 +6,9 @@ Pure: takes the model's Fluid (SI floats), returns traced Values.
 from __future__ import annotations
 
 from specgen.calc import fluid
-from specgen.calc.record import Record
-from specgen.spec import defaults
-from specgen.spec.model import Fluid
+from specgen.resolve.record import Record
+from specgen.intake import defaults
+from specgen.intake.model import Fluid
 from specgen.trace import Input, Value, given
 
 SRC_GRADE = "ISO 3448 (viscosity grade mid-point at 40 degC)"

@@ -25,7 +25,7 @@ from dataclasses import dataclass
 from functools import lru_cache
 
 from specgen import units
-from specgen.spec.validate import schema
+from specgen.intake.validate import schema
 
 SIG_FIGS = 12
 

@@ -11,9 +11,9 @@ from dataclasses import dataclass, field
 
 from specgen.calc import sizing as sizing_calc
 from specgen.calc import variable
-from specgen.calc.record import Record, eff
+from specgen.resolve.record import Record, eff
 from specgen.results import DriveResult
-from specgen.spec.model import Drive, Sizing, Supply
+from specgen.intake.model import Drive, Sizing, Supply
 from specgen.trace import Input, Value, given
 
 SRC_SIZING = "minimum displacement from the motor torque relation T = Vg*dp*eta_hm/(2*pi)"

@@ -6,7 +6,7 @@ Pure: SI floats in (flow m^3/s, lengths m, viscosity m^2/s, density kg/m^3), tra
 from __future__ import annotations
 
 from specgen.calc import lines
-from specgen.spec.model import Line
+from specgen.intake.model import Line
 from specgen.trace import Input, Value
 
 SRC_CONTINUITY = "continuity: mean velocity = flow / bore area"

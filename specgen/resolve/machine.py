@@ -10,14 +10,14 @@ Pure: takes the model's SI floats, returns Results; no I/O, no pint.
 from __future__ import annotations
 
 from specgen.calc import gearing, loads, motor, variable
-from specgen.calc.record import Record, eff
-from specgen.calc.resolve_drive import DriveSetup, setup_drive
-from specgen.calc.resolve_fluid import fluid_values
-from specgen.calc.resolve_lines import line_values
-from specgen.calc.resolve_load import load_values
-from specgen.calc.resolve_supply import mode_heat, resolve_supply_mode, supply_base, supply_summary
+from specgen.resolve.record import Record, eff
+from specgen.resolve.drive import DriveSetup, setup_drive
+from specgen.resolve.fluid import fluid_values
+from specgen.resolve.lines import line_values
+from specgen.resolve.load import load_values
+from specgen.resolve.supply import mode_heat, resolve_supply_mode, supply_base, supply_summary
 from specgen.results import DutyResult, Results
-from specgen.spec.model import Drive, DutyPoint, Machine, Ratio, Supply
+from specgen.intake.model import Drive, DutyPoint, Machine, Ratio, Supply
 from specgen.trace import Input, Value, given
 
 SRC_MOTOR = "positive-displacement motor relations (fluid-power textbook)"

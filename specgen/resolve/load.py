@@ -10,7 +10,7 @@ from __future__ import annotations
 import math
 
 from specgen.calc import loads
-from specgen.spec.model import BeltLoad, DutyPoint, SpeedSquaredLoad, WheelLoad, WinchLoad
+from specgen.intake.model import BeltLoad, DutyPoint, SpeedSquaredLoad, WheelLoad, WinchLoad
 from specgen.trace import Input, Value, given
 
 SRC_WINCH = "winch drum torque and rope speed on the working layer (hoisting textbook)"

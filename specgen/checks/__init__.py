@@ -11,9 +11,9 @@ from __future__ import annotations
 from dataclasses import replace
 from typing import Callable, Iterator
 
-from specgen.checks_depth import DEPTH_CHECKS
+from specgen.checks.depth import DEPTH_CHECKS
 from specgen.results import Check, Results
-from specgen.spec.model import Machine
+from specgen.intake.model import Machine
 from specgen.units import format_si
 
 Fmt = Callable[[float, str], str]

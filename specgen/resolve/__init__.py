@@ -1,0 +1,1 @@
+"""Walks the validated model through the relations of calc/ and returns Results."""
