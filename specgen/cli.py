@@ -206,7 +206,7 @@ def cmd_report(args) -> int:
 def cmd_schema(args) -> int:
     import json
 
-    from specgen.intake.validate import schema
+    from specgen.intake.schema import schema
 
     _emit(json.dumps(schema(), indent=2) + "\n", args.output)
     return EXIT_OK

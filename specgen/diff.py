@@ -24,7 +24,8 @@ import math
 from dataclasses import dataclass
 
 from specgen.pipeline import Outcome
-from specgen.intake.content import Field, common_kind, fields, si_value
+from specgen.intake.content import common_kind, si_value
+from specgen.intake.schema import Field, fields
 
 INPUT_TOLERANCE = 1e-4  # 0.01 %: a value converted to 4-5 significant figures is the same value
 RESULT_TOLERANCE = 1e-4

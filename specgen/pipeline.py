@@ -5,6 +5,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from pathlib import Path
 
+from specgen.resolve.load import decide_directions
 from specgen.resolve.machine import resolve
 from specgen.checks import run_checks
 from specgen.heap import few_full_collections
@@ -24,7 +25,7 @@ class Outcome:
 def evaluate(source: Source, allow_outside_files: bool = False) -> Outcome:
     """``allow_outside_files``: a file the spec names (a parts file) may lie outside its folder tree."""
     with few_full_collections():  # these stages make no cyclic garbage to sweep for (specgen/heap.py)
-        machine = build(source, allow_outside_files=allow_outside_files)
+        machine = build(source, decide_directions, allow_outside_files=allow_outside_files)
         results = run_checks(machine, resolve(machine))
     return Outcome(source, machine, results)
 

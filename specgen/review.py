@@ -100,7 +100,7 @@ def named_parts_files(source: Source) -> dict:
 
     Read only after the spec was built, which has already refused files outside its folder tree.
     """
-    from specgen.intake.build_depth import resolve_inside
+    from specgen.intake.build_sizing import resolve_inside
     from specgen.intake.read import load_file
 
     sizing = source.data.get("sizing")

@@ -3,13 +3,18 @@
 Units: pressure Pa, displacement m^3/rev, flow m^3/s, speed rev/s, torque N*m, power W,
 temperature K, density kg/m^3, force N, length m, velocity m/s, acceleration m/s^2, mass kg,
 inertia kg*m^2, time s, angle rad, kinematic viscosity m^2/s. A model is built only from a
-validated spec (see validate.py and build_depth.py).
+validated spec (see validate.py and the build_*.py modules it calls).
 """
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass, field
 from functools import cached_property
+
+# ISO VG grades whose typical 100 degC viscosity lies below 2 mm^2/s, where ISO 2909 defines no
+# viscosity index: no typical value exists for them (calc/fluid.py holds the values of the others).
+GRADES_WITHOUT_TYPICAL_100C = frozenset({2, 3, 5})
 
 
 @dataclass(frozen=True)
@@ -27,6 +32,14 @@ class Fluid:
     temperature: float
     density: Ratio  # kg/m^3 carried as a Ratio so "assumed" travels with it
     viscosity_100c: float | None = None  # m^2/s measured at 100 degC; None: typical VI-100 value
+
+    @property
+    def viscosity_known(self) -> bool:
+        """Can the viscosity at the operating temperature be found: a usable temperature, and a
+        measured 100 degC viscosity or a grade that has a typical one."""
+        if self.temperature is None or not math.isfinite(self.temperature):
+            return False
+        return self.viscosity_100c is not None or self.iso_vg not in GRADES_WITHOUT_TYPICAL_100C
 
 
 @dataclass(frozen=True)
@@ -174,7 +187,8 @@ class DutyPoint:
     title: str
     torque: float | None  # N*m at the load shaft, when given directly
     speed: float | None  # rev/s at the load shaft, when given directly
-    direction: str  # "driving" or "overrunning"
+    direction: str | None  # "driving" or "overrunning"; as written (None: not given) until the load's
+    # sign decides it (resolve/load.py), which every model past validation has done
     starting_torque: float | None
     load: WinchLoad | WheelLoad | BeltLoad | SpeedSquaredLoad | None = None
     inertia: Inertia | None = None

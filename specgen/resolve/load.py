@@ -1,16 +1,18 @@
 """Load-shaft torque and speed of a duty point, traced, from a load model or as entered.
 
 Every load model's inputs appear in the trace of the load torque and speed it computes.
-Torques are returned as magnitudes: a negative model torque (downhill, regenerating belt) has
-already made the duty point overrunning during validation, and the note says so.
+Torques are returned as magnitudes: a negative model torque (downhill, regenerating belt) makes
+the duty point overrunning (``decide_directions``, run as the spec is validated), and the note
+says so.
 """
 
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 
 from specgen.calc import loads
-from specgen.intake.model import BeltLoad, DutyPoint, SpeedSquaredLoad, WheelLoad, WinchLoad
+from specgen.intake.model import BeltLoad, DutyPoint, Machine, SpeedSquaredLoad, WheelLoad, WinchLoad
 from specgen.trace import Input, Value, given
 
 SRC_WINCH = "winch drum torque and rope speed on the working layer (hoisting textbook)"
@@ -20,6 +22,60 @@ SRC_BELT = "conveyor drive pulley: effective belt pull times pulley radius (conv
 SRC_FAN = "fan and pump affinity laws: torque follows the square of speed"
 
 _OVERRUN_NOTE = "negative: the load drives the motor (overrunning); its magnitude is used"
+
+
+def decide_directions(machine: Machine) -> tuple[Machine, list[tuple[tuple, str]]]:
+    """The machine with every duty point's direction decided, and the duty points whose written
+    direction contradicts their load, as (path in the spec, sentence).
+
+    A duty point runs the way the spec wrote it ("driving" when it wrote none), except that a wheel
+    or belt load whose force is negative (downhill, braking, a regenerating belt) drives the motor:
+    it is overrunning whatever was written, and writing "driving" there is a contradiction; so is
+    writing "overrunning" for a wheel or belt load whose force is positive.
+
+    Example: a 12 t vehicle, c_rr 0.02, on a -10 % grade: F = m*g*(0.02*cos(theta) + sin(theta))
+    = 12000*9.80665*(0.0199 - 0.0995) = -9368 N < 0, so the duty point is overrunning.
+    """
+    problems: list[tuple[tuple, str]] = []
+    drives = []
+    for drive in machine.drives:
+        duties = []
+        for duty in drive.duty_points:
+            direction, refused = duty_direction(duty)
+            if refused:
+                problems.append((("drives", drive.id, "duty_points", duty.id, "direction"), refused))
+            duties.append(duty if direction == duty.direction else replace(duty, direction=direction))
+        drives.append(replace(drive, duty_points=tuple(duties)))
+    return replace(machine, drives=tuple(drives)), problems
+
+
+def duty_direction(duty: DutyPoint) -> tuple[str, str | None]:
+    """The direction a duty point runs in, and why its written direction is refused (None if it is not)."""
+    written = duty.direction
+    sign = _load_sign(duty.load)
+    if sign is None:
+        return written or "driving", None
+    if sign < 0:
+        if written == "driving":
+            return "overrunning", ("the load model gives a negative torque here (the load drives the motor, "
+                                   "e.g. downhill); write direction: overrunning or leave it out")
+        return "overrunning", None
+    if written == "overrunning":
+        return written, ("the load model gives a driving torque here; an overrunning "
+                         f"{duty.load.model} load needs a negative force (downhill, braking)")
+    return written or "driving", None
+
+
+def _load_sign(load) -> float | None:
+    """The sign-carrying force of a wheel or belt load (N); None for other loads or unusable inputs."""
+    try:
+        if isinstance(load, WheelLoad):
+            return loads.tractive_force(load.vehicle_mass, load.rolling_resistance, load.grade, load.acceleration)
+        if isinstance(load, BeltLoad):
+            return load.belt_pull
+    except (ValueError, TypeError):  # a bad input already has its own message
+        return None
+    return None
 
 
 def load_values(duty: DutyPoint) -> list[Value]:

@@ -1,5 +1,6 @@
-"""Inlining the schema's local references changes no verdict and no message (JSON Schema 2020-12:
-a "$ref" beside other keywords applies together with them, as "allOf" does)."""
+"""The schemas read once: inlining the local references changes no verdict and no message (JSON
+Schema 2020-12: a "$ref" beside other keywords applies together with them, as "allOf" does); each
+field's kind and example come from the schema."""
 
 from __future__ import annotations
 
@@ -10,9 +11,8 @@ from helpers import example_data, value_paths
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from specgen.intake.schema_refs import inline_local_refs
-from specgen.intake import validate
-from specgen.intake.validate import schema
+from specgen.intake import schema as schemas
+from specgen.intake.schema import inline_local_refs, schema
 
 
 def test_refs_are_replaced_and_siblings_kept_beside_them():
@@ -48,13 +48,8 @@ _ALL = [p for p in value_paths(_DEMO) if p]
 
 def _messages(validator, data) -> list[tuple]:
     """check_schema's sentences as they come from ``validator`` (its schema is the one they read)."""
-    saved = validate._validator
-    validate._validator = lambda: validator
-    try:
-        return sorted((tuple(map(str, path)), message)
-                      for path, message in map(validate._schema_message, validator.iter_errors(data)))
-    finally:
-        validate._validator = saved
+    return sorted((tuple(map(str, path)), message)
+                  for path, message in (schemas.message(e, validator.schema) for e in validator.iter_errors(data)))
 
 
 @settings(max_examples=150)

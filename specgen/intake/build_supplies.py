@@ -1,0 +1,96 @@
+"""Build each supply from a schema-valid spec: its pump and pump control, relief and return
+pressures, prime mover power and speed, drive ratio, circuit, where surplus flow goes, suction line.
+
+Quantities become SI floats (Pa, m^3/rev, rev/s, m^3/s, W); every refused value or contradiction
+is a problem in the builder, located at its field.
+"""
+
+from __future__ import annotations
+
+import math
+
+from specgen.intake import defaults
+from specgen.intake.build_fluid import NEEDS_FLUID, build_line, viscosity_known
+from specgen.intake.model import Fluid, Pump, Ratio, Supply
+from specgen.intake.quantities import Builder
+
+
+def build_supply(b: Builder, sid: str, s: dict, fluid: Fluid | None) -> Supply:
+    path = ("supplies", sid)
+    pump = _pump(b, s["pump"], path + ("pump",))
+    relief = b.quantity(s, "relief_setting", path, "pressure")
+    ret = b.quantity(s, "return_pressure", path, "pressure", sign="nonnegative", default=0.0)
+    if relief is not None and relief > 0 and ret is not None and ret >= relief:  # relief <= 0 is reported already
+        b.fail(path + ("return_pressure",), "return pressure must be below the relief setting")
+    prime_mover_power = b.quantity(s, "prime_mover_power", path, "power")
+    _control(b, s, path, pump, relief)
+    pm_speed, ratio = _prime_mover_speed(b, s, path, pump)
+    surplus = s.get("surplus_to", "working_pressure")
+    oc = b.quantity(s, "open_centre_pressure", path, "pressure")
+    if surplus == "open_centre" and oc is None:
+        b.fail(path + ("surplus_to",), "surplus_to: open_centre needs open_centre_pressure")
+    elif surplus != "open_centre" and oc is not None:
+        b.fail(path + ("open_centre_pressure",), "open_centre_pressure applies only with surplus_to: open_centre")
+    elif oc is not None and relief is not None and oc >= relief:
+        b.fail(path + ("open_centre_pressure",), "the open-centre pressure must be below the relief setting")
+    suction = build_line(b, s.get("suction_line"), path + ("suction_line",))
+    if suction is not None and not viscosity_known(fluid):
+        b.fail(path + ("suction_line",), NEEDS_FLUID)
+    return Supply(
+        id=sid, title=s.get("title", sid), pump=pump, relief_setting=relief, return_pressure=ret,
+        prime_mover_power=prime_mover_power, prime_mover_speed=pm_speed,
+        drive_ratio=float(ratio) if ratio is not None else 1.0, circuit=s.get("circuit", "parallel"),
+        surplus_to=surplus, open_centre_pressure=oc, suction_line=suction,
+    )
+
+
+def _pump(b: Builder, p: dict, ppath: tuple) -> Pump:
+    displacement = b.quantity(p, "displacement", ppath, "displacement")
+    shaft_speed = b.quantity(p, "shaft_speed", ppath, "speed")
+    delivery = b.quantity(p, "delivery", ppath, "flow")
+    volumetric = b.ratio(p, "volumetric_efficiency", ppath, defaults.PUMP_VOLUMETRIC, defaults.PUMP_BASIS)
+    overall = b.ratio(p, "overall_efficiency", ppath, defaults.PUMP_OVERALL, defaults.PUMP_BASIS)
+    if "delivery" in p and "volumetric_efficiency" not in p:
+        # a delivered flow already includes leakage; no assumption is made about it
+        volumetric = Ratio(1.0)
+    return Pump(displacement, shaft_speed, delivery, volumetric, overall, control=p.get("control", "fixed"),
+                compensator_setting=b.quantity(p, "compensator_setting", ppath, "pressure"))
+
+
+def _control(b: Builder, s: dict, path: tuple, pump: Pump, relief: float | None) -> None:
+    """A pressure-compensated pump needs a compensator setting below the relief setting."""
+    ppath = path + ("pump",)
+    comp = pump.compensator_setting
+    if pump.control == "pressure_compensated":
+        if comp is None:
+            b.fail(ppath + ("control",), "a pressure-compensated pump needs compensator_setting")
+        elif relief is not None and comp >= relief:
+            b.fail(ppath + ("compensator_setting",),
+                   "the compensator setting must be below the relief setting, or the relief valve dumps the flow")
+        if "surplus_to" in s:
+            b.fail(path + ("surplus_to",), "a pressure-compensated pump delivers no surplus flow; remove surplus_to")
+    elif comp is not None:
+        b.fail(ppath + ("compensator_setting",), "compensator_setting applies only with control: pressure_compensated")
+
+
+def _prime_mover_speed(b: Builder, s: dict, path: tuple, pump: Pump) -> tuple[float | None, float | None]:
+    """The prime mover speed (rev/s) and the drive ratio (pump shaft speed / prime mover speed):
+    give two of pump shaft speed, prime mover speed and drive ratio, or all three in agreement."""
+    ppath = path + ("pump",)
+    pm_speed = b.quantity(s, "prime_mover_speed", path, "speed")
+    ratio = s.get("drive_ratio")
+    if ratio is not None and not math.isfinite(ratio):
+        b.fail(path + ("drive_ratio",), f"drive ratio {ratio!r} must be a finite number above zero")
+        ratio = None
+    shaft = pump.shaft_speed
+    if "displacement" in s["pump"] and shaft is None and pm_speed is None:
+        b.fail(ppath, "give the pump's shaft_speed, or the supply's prime_mover_speed (the pump then turns at "
+                      "prime_mover_speed times drive_ratio)")
+    if shaft is not None and pm_speed is not None and math.isfinite(shaft) and math.isfinite(pm_speed):
+        implied = shaft / pm_speed
+        if ratio is not None and abs(implied - ratio) > 1e-6 * ratio:
+            b.fail(path + ("drive_ratio",),
+                   f"pump shaft speed / prime mover speed is {implied:.4g}, not the drive ratio {ratio:g}; "
+                   "give two of the three")
+        ratio = implied if ratio is None else ratio
+    return pm_speed, ratio
