@@ -72,3 +72,33 @@ def test_inlined_schema_gives_the_same_problems_as_the_original(edits):
 
 def test_demo_is_valid_under_both():
     assert _messages(_ORIGINAL, _DEMO) == _messages(_INLINED, _DEMO) == []
+
+
+def test_fields_take_their_kind_from_the_schema_definitions():
+    data = {"supplies": {"main": {"relief_setting": "250 bar", "pump": {"volumetric_efficiency": "92 %"}}},
+            "drives": {"hoist": {"motor": {"displacement": {"min": "40 cm^3", "max": "100 cm^3"}},
+                                 "duty_points": {"lift": {"load": {"wheel": {"grade": "8 %"}}}}}}}
+    f = schemas.fields(data)
+    assert f[("supplies", "main", "relief_setting")].kind == "pressure"
+    assert f[("supplies", "main", "pump", "volumetric_efficiency")].kind == "ratio"  # efficiency refs ratio
+    assert f[("drives", "hoist", "motor", "displacement", "min")].kind == "displacement"  # the {min, max} shape
+    grade = f[("drives", "hoist", "duty_points", "lift", "load", "wheel", "grade")]
+    assert grade.kind is None and grade.quantity  # percent or angle: no single kind
+    assert f[("drives", "hoist")].noun == "drive" and f[("drives", "hoist", "duty_points", "lift")].noun == "duty point"
+
+
+def test_a_number_without_its_unit_is_answered_with_the_fields_example():
+    data = copy.deepcopy(_DEMO)
+    data["supplies"][next(iter(data["supplies"]))]["relief_setting"] = 250
+    (error,) = list(schemas.validator().iter_errors(data))
+    path, message = schemas.message(error)
+    assert path[-1] == "relief_setting"
+    assert message == f"'250' has no unit; write it with its unit, e.g. '{schemas.example(error.schema_path)}'"
+    assert schemas.example(error.schema_path).endswith(" bar")
+
+
+def test_each_schema_is_read_once():
+    assert schema() is schema() and schemas.parts_schema() is schemas.parts_schema()
+    assert schemas.validator() is schemas.validator() and schemas.parts_validator() is schemas.parts_validator()
+    assert schemas.parts_validator().is_valid({"format": 1, "motors": {"orbital": ["80 cm^3"]}})
+    assert not schemas.parts_validator().is_valid({"format": 1, "motors": {"orbital": [80]}})

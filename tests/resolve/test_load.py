@@ -1,5 +1,6 @@
 """Load models wired into the spec: a rope pull, a grade, a belt pull or a fan curve gives the motor
-torque, pressure and speed. Each figure is checked against a hand calculation written beside it."""
+torque, pressure and speed, and the load's sign decides which way it runs. Each figure is checked
+against a hand calculation written beside it."""
 
 import math
 
@@ -8,7 +9,9 @@ import pytest
 from helpers import minimal
 from specgen.errors import SpecError
 from specgen.pipeline import evaluate
+from specgen.intake.model import BeltLoad, DutyPoint, WheelLoad, WinchLoad
 from specgen.intake.read import Source
+from specgen.resolve.load import decide_directions, duty_direction
 
 G = 9.80665  # standard gravity, CGPM 1901
 
@@ -123,33 +126,42 @@ def test_belt_and_speed_squared_loads():
     assert f["load_torque"] == pytest.approx(225.0)
 
 
-def test_torque_and_load_together_is_refused_with_its_location():
-    d = minimal()
-    d["drives"]["hoist"]["duty_points"]["lift"]["load"] = {"belt": {"belt_pull": "8 kN", "pulley_diameter": "0.5 m",
-                                                                    "belt_speed": "1.5 m/s"}}
-    with pytest.raises(SpecError) as e:
-        outcome(d)
-    assert "drives.hoist.duty_points.lift.torque: give torque and speed, or a load block, not both" in str(e.value)
+def duty(load, direction=None):
+    return DutyPoint(id="u", title="u", torque=None, speed=None, direction=direction, starting_torque=None, load=load)
 
 
-def test_two_load_models_and_a_grade_without_unit_are_refused():
-    d = wheel_spec("8 %")
-    d["drives"]["hoist"]["duty_points"]["lift"]["load"]["belt"] = {"belt_pull": "8 kN", "pulley_diameter": "0.5 m",
-                                                                   "belt_speed": "1.5 m/s"}
-    with pytest.raises(SpecError) as e:
-        outcome(d)
-    assert "exactly one load model" in str(e.value)
-    with pytest.raises(SpecError) as e:
-        outcome(wheel_spec(8))
-    assert "load.wheel.grade" in str(e.value)
-    with pytest.raises(SpecError) as e:
-        outcome(wheel_spec("8"))
-    assert "load.wheel.grade" in str(e.value) and "'8 %'" in str(e.value)
+def wheel(grade_percent):
+    return WheelLoad(vehicle_mass=12000.0, rolling_resistance=0.05, grade=math.atan(grade_percent / 100),
+                     rolling_radius=0.6, driven_wheels=4, travel_speed=2.0)
 
 
-def test_a_wrong_unit_in_a_load_model_names_the_field():
-    d = winch_spec()
-    d["drives"]["hoist"]["duty_points"]["lift"]["load"]["winch"]["line_pull"] = "20 kN*m"
+def test_the_load_sign_decides_the_direction_and_refuses_a_contradiction():
+    # F = m*g*(c_rr*cos(theta) + sin(theta)): -20 %: 12000*9.80665*(0.05*0.98058 - 0.19612) = -17 310 N < 0;
+    # +10 %: 12000*9.80665*(0.05*0.99504 + 0.09950) = 17 564 N > 0 (vehicle dynamics textbook relation)
+    assert duty_direction(duty(wheel(-20))) == ("overrunning", None)
+    assert duty_direction(duty(wheel(-20), "overrunning")) == ("overrunning", None)
+    direction, refused = duty_direction(duty(wheel(-20), "driving"))
+    assert direction == "overrunning" and refused.startswith("the load model gives a negative torque here")
+    assert duty_direction(duty(wheel(10))) == ("driving", None)
+    direction, refused = duty_direction(duty(wheel(10), "overrunning"))
+    assert refused == ("the load model gives a driving torque here; an overrunning wheel load needs a negative "
+                       "force (downhill, braking)")
+    # a belt carries its sign in the pull; a winch and a duty point without a load keep what was written
+    assert duty_direction(duty(BeltLoad(-3000.0, 0.5, 1.5)))[0] == "overrunning"
+    assert duty_direction(duty(BeltLoad(3000.0, 0.5, 1.5), "overrunning"))[1] is not None
+    assert duty_direction(duty(WinchLoad(20e3, 0.5, 0.4, 0.016, 3), "overrunning")) == ("overrunning", None)
+    assert duty_direction(duty(None)) == ("driving", None)
+
+
+def test_decided_directions_reach_the_model_and_contradictions_name_their_place():
+    data = wheel_spec("-20 %", direction="driving")
+    from specgen.intake.validate import build
+
     with pytest.raises(SpecError) as e:
-        outcome(d)
-    assert "duty_points.lift.load.winch.line_pull" in str(e.value) and "force" in str(e.value)
+        build(Source("mem.yaml", data, b""), decide_directions)
+    assert [p.path for p in e.value.problems] == ["drives.hoist.duty_points.lift.direction"]
+    machine = build(Source("mem.yaml", wheel_spec("-20 %"), b""), decide_directions)
+    assert machine.drive("hoist").duty("lift").direction == "overrunning"
+    # without the decision the model keeps what the spec wrote: nothing
+    undecided = build(Source("mem.yaml", wheel_spec("-20 %"), b""), lambda m: (m, []))
+    assert undecided.drive("hoist").duty("lift").direction is None

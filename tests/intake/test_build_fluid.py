@@ -109,3 +109,26 @@ def test_measured_viscosity_at_100c_replaces_the_typical_value():
     with pytest.raises(SpecError) as e:
         outcome(d)
     assert "fluid.viscosity_100c" in str(e.value) and "below" in str(e.value)
+
+
+def test_grade_facts_read_at_intake_agree_with_the_fluid_relations():
+    # ISO 3448 mid-points and the grades with a typical VI-100 viscosity at 100 degC (calc/fluid.py)
+    from specgen.calc import fluid as fluid_calc
+    from specgen.intake.build_fluid import midpoint_40c
+    from specgen.intake.model import GRADES_WITHOUT_TYPICAL_100C
+    from specgen.intake.schema import schema
+
+    grades = schema()["properties"]["fluid"]["properties"]["iso_vg"]["enum"]
+    assert grades == list(fluid_calc.ISO_VG_GRADES)
+    assert [midpoint_40c(g) for g in grades] == [fluid_calc.iso_vg_midpoint_m2s(g) for g in grades]
+    assert set(grades) - GRADES_WITHOUT_TYPICAL_100C == set(fluid_calc._TYPICAL_NU100_VI100_MM2S)
+
+
+def test_a_grade_without_a_typical_100c_viscosity_needs_a_measured_one_for_lines():
+    d = lined()
+    d["fluid"]["iso_vg"] = 5
+    with pytest.raises(SpecError) as e:
+        outcome(d)
+    assert "drives.hoist.lines: lines need the fluid's viscosity" in str(e.value)
+    d["fluid"]["viscosity_100c"] = "1.6 mm^2/s"
+    assert outcome(d).results.fluid["viscosity_100c"].value == pytest.approx(1.6e-6)
