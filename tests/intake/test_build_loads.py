@@ -17,7 +17,8 @@ def winch_spec():
     d = minimal()
     d["drives"]["hoist"]["gear_stage"] = {"ratio": 25, "efficiency": 0.95}
     d["drives"]["hoist"]["duty_points"] = {"lift": {"load": {"winch": {
-        "line_pull": "20 kN", "line_speed": "0.5 m/s", "drum_diameter": "400 mm", "rope_diameter": "16 mm", "layer": 3}}}}
+        "line_pull": "20 kN", "line_speed": "0.5 m/s", "drum_diameter": "400 mm", "rope_diameter": "16 mm",
+        "layer": 3}}}}
     return d
 
 
