@@ -86,4 +86,5 @@ def spec_check(data: dict, check_id: str, **where):
 def limit_not_failed_yet():
     import pytest
 
-    return pytest.mark.xfail(strict=True, reason="this check does not fail a value exactly at its limit")
+    return pytest.mark.xfail(strict=True, raises=AssertionError,
+                             reason="this check does not fail a value exactly at its limit")
