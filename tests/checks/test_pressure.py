@@ -242,3 +242,22 @@ def test_case_pressure_missing_figures_warn_and_no_drain_no_check():
     assert spec_check(case("1 bar", None), "case_pressure", drive="hoist").status == "warn"
     assert spec_check(case(None, "3 bar"), "case_pressure", drive="hoist").status == "warn"
     assert spec_checks(case("5 bar", "3 bar", drain=False), "case_pressure") == []
+
+
+# ---------------------------------------------------------------- the pressure-line loss counts
+
+@pytest.mark.parametrize("length, margin, status", [
+    # ISO VG 220 at 40 degC: nu = 220 mm^2/s (ISO 3448), rho 870 kg/m^3, mu = 0.19140 Pa*s; q = 8.7719e-4 m^3/s
+    # in a 12 mm bore: v = 7.756 m/s, Re = 7.756*0.012/220e-6 = 423, laminar; Hagen-Poiseuille (fluid
+    # mechanics textbook) dp = 128*mu*L*q/(pi*d^4) = 128*0.1914*L*8.7719e-4/(pi*2.0736e-8) = 3.2989 bar per m.
+    # p_supply = 205.0147 + dp_line; margin = (250 - p_supply)/250 (hand calculation)
+    ("6.0 m", 0.100767, "pass"),  # dp_line = 19.794 bar; p_supply = 224.808 bar; 10.08 %
+    ("6.1 m", 0.099447, "warn"),  # dp_line = 20.123 bar; p_supply = 225.138 bar; 9.94 % (17.99 % without it)
+])
+def test_pressure_line_loss_enters_both_margins(length, margin, status):
+    d = minimal()
+    d["fluid"] = {"iso_vg": 220, "temperature": "40 degC", "density": "870 kg/m^3"}
+    d["drives"]["hoist"]["lines"] = {"pressure": {"inner_diameter": "12 mm", "length": length}}
+    for c in (margin_check(d), spec_check(d, "supply_pressure", supply="main", mode="work")):
+        assert c.status == status
+        assert c.value == pytest.approx(margin, abs=2e-6)
