@@ -65,7 +65,7 @@ def test_braking_needs_less_pressure_than_driving():
     # An overrunning motor is a pump: friction helps hold the load (common practice, no source)
     vg, eta = 100e-6, 0.9
     # driving dp = 2*pi*T/(Vg*eta_hm) = 2*pi*300/(100e-6*0.9) = 209.440 bar; braking dp = 2*pi*T*eta_hm/Vg
-    # = 2*pi*300*0.9/100e-6 = 169.646 bar (primer sec. 2 and 12; hand calculation)
+    # = 2*pi*300*0.9/100e-6 = 169.646 bar (motor relations, fluid-power textbook; hand calculation)
     assert motor.pressure_for_torque(300.0, vg, eta) / 1e5 == pytest.approx(209.440, abs=1e-3)
     assert motor.braking_pressure(300.0, vg, eta) / 1e5 == pytest.approx(169.646, abs=1e-3)
 

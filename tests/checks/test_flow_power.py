@@ -1,8 +1,8 @@
 """Supply checks at their pass / warn / fail boundaries: pump_flow, prime_mover_power, makeup_flow.
 
 Fixture helpers.minimal(): pump 40 cm^3 at 1500 rpm, eta_v 0.95, eta_t 0.85; delivery
-q_p = Vp * n * eta_v = 40 * 1500 * 0.95 = 57.0 L/min (primer sec. 6). Motor 100 cm^3, eta_v 0.95,
-eta_hm 0.9: flow demand q = Vg * n / eta_v (primer sec. 2). Default warn margins
+q_p = Vp * n * eta_v = 40 * 1500 * 0.95 = 57.0 L/min (pump relation, fluid-power textbook). Motor 100 cm^3, eta_v 0.95,
+eta_hm 0.9: flow demand q = Vg * n / eta_v (motor relation, fluid-power textbook). Default warn margins
 (specgen/intake/defaults.py): flow 5 %, power 10 %.
 """
 
@@ -51,7 +51,8 @@ def test_pump_flow_adds_parallel_drives():
 # ---------------------------------------------------------------- prime_mover_power
 
 @pytest.mark.parametrize("power, status", [
-    # P_in = q_p * p_s / eta_t, p_s = 2*pi*286.5/(100e-6*0.9) + 5 bar = 205.015 bar (primer sec. 2, 6):
+    # P_in = q_p * p_s / eta_t, p_s = 2*pi*286.5/(100e-6*0.9) + 5 bar = 205.015 bar
+    # (motor and pump relations, fluid-power textbook):
     # 57 * 205.015 / 600 / 0.85 = 22.9134 kW; margin = (P_pm - 22.9134)/P_pm (hand calculation)
     ("30 kW", "pass"),      # 23.62 %
     ("25.49 kW", "pass"),   # 2.5766/25.49 = 10.11 %

@@ -1,11 +1,11 @@
 """Line velocity and heat load checks at their boundaries.
 
-Line velocity v = q / A, A = pi*d^2/4 (continuity; primer sec. 7). Rule-of-thumb upper limits
-(common practice, no source; primer sec. 7): pressure 6 m/s, return 3 m/s, suction 1.2 m/s; warn above
+Line velocity v = q / A, A = pi*d^2/4 (continuity). Rule-of-thumb upper limits
+(common practice, no source): pressure 6 m/s, return 3 m/s, suction 1.2 m/s; warn above
 the limit, pressure and return lines fail above 1.5 times it (9 and 4.5 m/s), suction never fails.
 Fixture helpers.minimal(): motor flow q = Vg * n / eta_v = 100e-6 * (500/60) / 0.95 = 8.7719e-4 m^3/s
 (52.63 L/min); the pump draws its geometric flow Vp * n = 40e-6 * 25 = 1.0e-3 m^3/s (60 L/min).
-Heat load: energy balance, heat = pump input - useful shaft power (primer sec. 6); default warn
+Heat load: energy balance, heat = pump input - useful shaft power (energy balance, first law); default warn
 margin 10 % (specgen/intake/defaults.py).
 """
 

@@ -1,7 +1,8 @@
 """Motor checks at their boundaries: displacement_choice, breakaway, load_holding.
 
 Fixture helpers.minimal(): relief 250 bar, return 5 bar, a 100 cm^3 motor with eta_hm 0.9 and
-eta_start 0.85, duty 286.5 N*m at 500 rpm. Relations (primer sec. 2, 5, 13):
+eta_start 0.85, duty 286.5 N*m at 500 rpm. Relations (positive-displacement motor relations and
+gear-stage power balance, fluid-power textbook):
   breakaway torque from rest  T_start = Vg * (p_relief - p_out) * eta_start / (2*pi)
     = 100e-6 * 245e5 * 0.85 / (2*pi) = 331.440 N*m  (with eta_hm 0.9 it would be 350.937 N*m)
   starting torque needed at the motor  T_need = T_L,start / (i * eta_g)
@@ -45,7 +46,7 @@ def test_breakaway_boundaries(need, status):
 
 
 @pytest.mark.parametrize("load_start, need, status", [
-    # gear stage i = 20, eta_g = 0.95: T_need = T_L,start / (20 * 0.95) = T_L,start / 19 (primer sec. 5, 13)
+    # gear stage i = 20, eta_g = 0.95: T_need = T_L,start / (20 * 0.95) = T_L,start / 19 (gear-stage power balance)
     ("6.2 kN*m", 326.3158, "warn"),  # 6200/19 = 326.316 N*m: margin 1.57 % (eta_g multiplied: 294.5, would pass)
     ("6.3 kN*m", 331.5789, "fail"),  # 6300/19 = 331.579 N*m > 331.440: margin -0.04 %
 ])
@@ -101,7 +102,8 @@ def test_displacement_choice_proposes_a_size_when_none_is_given():
 
 
 @pytest.mark.parametrize("flow, checks", [
-    # n_reached = q * eta_v / Vg_min = q[cm^3/min] * 0.95 / 40 (primer sec. 2, 4; hand calculation)
+    # n_reached = q * eta_v / Vg_min = q[cm^3/min] * 0.95 / 40
+    # (motor speed relation, fluid-power textbook; hand calculation)
     ("50 L/min", 1),  # 50000 * 0.95 / 40 = 1187.5 rpm < 1200 rpm: cannot reach the duty speed
     ("51 L/min", 0),  # 51000 * 0.95 / 40 = 1211.25 rpm >= 1200 rpm: reaches it
 ])

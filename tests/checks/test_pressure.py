@@ -3,8 +3,9 @@ peak_pressure, continuous_pressure, outlet_pressure (per duty point and in serie
 
 The fixture is helpers.minimal(): relief 250 bar, return 5 bar, a 100 cm^3 motor with eta_v 0.95,
 eta_hm 0.9, eta_start 0.85, rated 280 bar continuous and 350 bar peak. Every expected number is a
-hand calculation from the motor relations (primer sec. 2: dp = 2*pi*T/(Vg*eta_hm), p_in = dp + p_out;
-overrunning: dp = 2*pi*T*eta_hm/Vg) and the series relations (primer sec. 6 and 11), shown beside it.
+hand calculation from the positive-displacement motor relations of fluid-power textbooks
+(dp = 2*pi*T/(Vg*eta_hm), p_in = dp + p_out; overrunning: dp = 2*pi*T*eta_hm/Vg) and the
+series-circuit relations (one flow, differentials add), shown beside it.
 Default warn margin for pressure: 10 % (specgen/intake/defaults.py).
 """
 
@@ -27,7 +28,8 @@ def margin_check(d):
 # ---------------------------------------------------------------- pressure_margin
 
 @pytest.mark.parametrize("torque, margin, status", [
-    # dp = 2*pi*T/(Vg*eta_hm), p_in = dp + 5 bar, margin = (250 - p_in)/250 (primer sec. 2, 8; hand calculation)
+    # dp = 2*pi*T/(Vg*eta_hm), p_in = dp + 5 bar, margin = (250 - p_in)/250
+    # (motor relation, fluid-power textbook; hand calculation)
     ("286.5 N*m", 0.179941, "pass"),   # dp = 2*pi*286.5/(100e-6*0.9) = 200.015 bar; (250-205.015)/250 = 17.99 %
     ("314.77 N*m", 0.100996, "pass"),  # dp = 2*pi*314.77/9e-5 = 219.751 bar; (250-224.751)/250 = 10.10 %
     ("315.49 N*m", 0.098986, "warn"),  # dp = 2*pi*315.49/9e-5 = 220.254 bar; (250-225.254)/250 = 9.90 %
@@ -79,7 +81,8 @@ def series(hoist_torque: str) -> dict:
 
 
 @pytest.mark.parametrize("torque, margin, status", [
-    # series: p_s = p_return + dp_hoist + dp_feed (primer sec. 6, 11); dp_feed = 2*pi*150/(100e-6*0.9) = 104.720 bar
+    # series: p_s = p_return + dp_hoist + dp_feed (series circuit: differentials add);
+    # dp_feed = 2*pi*150/(100e-6*0.9) = 104.720 bar
     # margin = (250 - p_s)/250 (hand calculation)
     ("150 N*m", 0.142240, "pass"),     # p_s = 5 + 104.720 + 104.720 = 214.440 bar; (250-214.440)/250 = 14.22 %
     ("164.77 N*m", 0.100996, "pass"),  # dp_h = 2*pi*164.77/9e-5 = 115.031 bar; p_s = 224.751 bar; 10.10 %
@@ -130,7 +133,8 @@ def test_peak_pressure_without_rating_warns():
 # ---------------------------------------------------------------- continuous_pressure
 
 @pytest.mark.parametrize("rating, status", [
-    # p_in = 2*pi*286.5/(100e-6*0.9) + 5 bar = 200.015 + 5 = 205.015 bar (primer sec. 2; hand calculation)
+    # p_in = 2*pi*286.5/(100e-6*0.9) + 5 bar = 200.015 + 5 = 205.015 bar
+    # (motor relation, fluid-power textbook; hand calculation)
     ("280 bar", "pass"),
     ("205.05 bar", "pass"),  # 205.015 < 205.05
     ("204.98 bar", "fail"),  # 205.015 > 204.98
@@ -145,7 +149,7 @@ def test_continuous_pressure_driving_boundaries(rating, status):
 
 @pytest.mark.parametrize("rating, status", [
     # overrunning: braking dp = 2*pi*T*eta_hm/Vg = 2*pi*286.5*0.9/100e-6 = 162.012 bar; held at the outlet
-    # p_hold = 162.012 + 5 = 167.012 bar (primer sec. 5, 12; hand calculation)
+    # p_hold = 162.012 + 5 = 167.012 bar (motor acting as a pump, fluid-power textbook; hand calculation)
     ("167.05 bar", "pass"),
     ("166.97 bar", "fail"),
 ])
@@ -196,7 +200,7 @@ def test_outlet_pressure_exactly_at_rating_fails():
 
 @pytest.mark.parametrize("rating, status", [
     # in series hoist's outlet is feed's inlet: 5 bar + dp_feed = 5 + 2*pi*150/(100e-6*0.9)
-    # = 5 + 104.720 = 109.720 bar (primer sec. 11; hand calculation)
+    # = 5 + 104.720 = 109.720 bar (series circuit; hand calculation)
     ("109.75 bar", "pass"),
     ("109.69 bar", "fail"),
 ])

@@ -1,9 +1,10 @@
 """Speed checks at their pass / warn / fail boundaries: max_speed, min_speed, min_displacement_speed.
 
-Fixture helpers.minimal(): no gear stage, so motor speed = duty speed (primer sec. 5, n_motor =
+Fixture helpers.minimal(): no gear stage, so motor speed = duty speed (gear stage: n_motor =
 n_load * i with i = 1); maximum speed rating 3000 rpm. Default speed warn margin 5 %
 (specgen/intake/defaults.py): warn when (n_max - n)/n_max < 5 %, i.e. above 2850 rpm.
-A variable motor's speed at its minimum displacement: n = q * eta_v / Vg_min (primer sec. 2 and 4).
+A variable motor's speed at its minimum displacement: n = q * eta_v / Vg_min (motor speed relation,
+fluid-power textbook).
 """
 
 import pytest
@@ -37,7 +38,7 @@ def test_max_speed_boundaries(rpm, status):
 def test_max_speed_with_gear_stage_checks_the_motor_side():
     d = at_speed("143 rpm")
     d["drives"]["hoist"]["gear_stage"] = {"ratio": 20, "efficiency": 0.95}
-    # n_motor = n_load * i = 143 * 20 = 2860 rpm (primer sec. 5); margin 140/3000 = 4.67 %: warn
+    # n_motor = n_load * i = 143 * 20 = 2860 rpm (gear stage); margin 140/3000 = 4.67 %: warn
     c = spec_check(d, "max_speed", drive="hoist", duty="lift")
     assert c.status == "warn" and c.value == pytest.approx(2860 / 60)
 
@@ -86,7 +87,8 @@ def variable(available: str, rating=True) -> dict:
 
 
 @pytest.mark.parametrize("flow, rpm, status", [
-    # n = q * eta_v / Vg_min = q[cm^3/min] * 0.95 / 38 = q/40 (primer sec. 2 and 4; hand calculation)
+    # n = q * eta_v / Vg_min = q[cm^3/min] * 0.95 / 38 = q/40
+    # (motor speed relation, fluid-power textbook; hand calculation)
     ("80 L/min", 2000, "pass"),       # 80000/40 = 2000 rpm
     ("113.88 L/min", 2847, "pass"),   # 113880/40 = 2847 rpm: margin 5.1 %
     ("114.12 L/min", 2853, "warn"),   # 2853 rpm: margin 4.9 %
