@@ -86,7 +86,7 @@ def report_html(tmp_path_factory):
     folder = tmp_path_factory.mktemp("inj")
     spec = write_spec(folder, hostile(minimal()))
     code, _, err = run_cli("report", "-o", folder / "out", spec)
-    assert code in (0, 1), err
+    assert code == 0, err  # the minimal machine passes; the payload changes no number
     return (folder / "out" / "index.html").read_text(encoding="utf-8")
 
 
@@ -94,7 +94,8 @@ def test_report_builds_no_markup_from_spec_text(report_html):
     page = assert_inert(report_html)
     text = shown_as_text(page)
     assert text.count("<script>alert(1)</script>") >= 5  # the titles are shown, as text
-    assert "alert(7)" in text or "click" in text  # the markdown link's words stay, its target does not
+    # a javascript: link is refused by the markdown renderer: it stays as its literal text, builds no link
+    assert text.count("[click](javascript:alert(7))") == 1
 
 
 def test_report_charts_hold_spec_text_only_as_text(report_html):
@@ -118,7 +119,7 @@ def diff_output(tmp_path, fmt: str) -> str:
     old, new = diff_pair(tmp_path)
     out = tmp_path / f"diff.{fmt}"
     code, _, err = run_cli("diff", old, new, "--format", fmt, "-o", out)
-    assert code in (0, 1), err
+    assert code == 0, err  # 300 N*m still passes every check: nothing got worse to a failure
     return out.read_text(encoding="utf-8")
 
 

@@ -78,4 +78,5 @@ def test_inlet_pressure_grows_linearly_with_torque(scale):
     d["drives"]["hoist"]["duty_points"]["lift"]["torque"] = f"{286.5 * scale} N*m"
     o = evaluate(Source("mem.yaml", d, b""))
     dp = o.results.duty("hoist", "lift")["pressure_differential"]
-    assert dp == pytest.approx(motor.pressure_for_torque(286.5 * scale, 100e-6, 0.9))
+    # dp = 2*pi*T/(Vg*eta_hm) = 2*pi*286.5/(100e-6*0.9) = 200.0147 bar at scale 1 (hand calc), linear in T
+    assert dp / 1e5 == pytest.approx(200.0147 * scale, rel=1e-6)

@@ -64,7 +64,10 @@ def test_inverse_relations_round_trip():
 def test_braking_needs_less_pressure_than_driving():
     # An overrunning motor is a pump: friction helps hold the load (common practice, no source)
     vg, eta = 100e-6, 0.9
-    assert motor.braking_pressure(300.0, vg, eta) == pytest.approx(motor.pressure_for_torque(300.0, vg, eta) * eta ** 2)
+    # driving dp = 2*pi*T/(Vg*eta_hm) = 2*pi*300/(100e-6*0.9) = 209.440 bar; braking dp = 2*pi*T*eta_hm/Vg
+    # = 2*pi*300*0.9/100e-6 = 169.646 bar (motor relations, fluid-power textbook; hand calculation)
+    assert motor.pressure_for_torque(300.0, vg, eta) / 1e5 == pytest.approx(209.440, abs=1e-3)
+    assert motor.braking_pressure(300.0, vg, eta) / 1e5 == pytest.approx(169.646, abs=1e-3)
 
 
 def test_gear_stage_power_balance():
@@ -86,3 +89,4 @@ def test_pump_relations():
     T = supply.input_torque(45e-6, 200e5, eta_hm)
     P = supply.input_power(supply.delivery(45e-6, 2200 / 60, eta_v), 200e5, eta_v * eta_hm)
     assert T == pytest.approx(P / (2 * math.pi * 2200 / 60), rel=1e-9)
+    assert T == pytest.approx(156.72, abs=0.01)  # 45e-6 * 200e5 / (2*pi*0.914) = 900/5.7428 (hand calc)
