@@ -11,12 +11,8 @@ import math
 from specgen.intake import defaults
 from specgen.intake.model import Cooler, Fluid, Line, Lines, Ratio
 from specgen.intake.quantities import Builder
+from specgen.iso_vg import ISO_VG_MIDPOINT_MM2S, WALTHER_CONSTANT_MM2S
 
-# ISO 3448: a grade's mid-point kinematic viscosity at 40 degC (mm^2/s) is its grade number, except
-# for the smallest grades, whose numbers are the mid-point rounded.
-_MIDPOINT_40C_MM2S = {2: 2.2, 3: 3.2, 5: 4.6, 7: 6.8}
-# ASTM D341 (Walther): log10(log10(nu + 0.7)) needs nu + 0.7 above 1 mm^2/s.
-_WALTHER_CONSTANT_MM2S = 0.7
 
 NEEDS_FLUID = ("lines need the fluid's viscosity and density: give the fluid block (iso_vg and temperature; "
                "for ISO VG 2, 3 and 5 also viscosity_100c)")
@@ -24,7 +20,7 @@ NEEDS_FLUID = ("lines need the fluid's viscosity and density: give the fluid blo
 
 def midpoint_40c(iso_vg: int) -> float:
     """ISO 3448 mid-point kinematic viscosity at 40 degC (m^2/s) of a grade: VG 46 -> 4.6e-05."""
-    return _MIDPOINT_40C_MM2S.get(iso_vg, float(iso_vg)) * 1e-6
+    return ISO_VG_MIDPOINT_MM2S[iso_vg] * 1e-6
 
 
 def build_fluid(b: Builder, f: dict | None) -> Fluid | None:
@@ -44,7 +40,7 @@ def build_fluid(b: Builder, f: dict | None) -> Fluid | None:
                    f"'{f['viscosity_100c']}' is not below the grade's 40 degC viscosity ({nu40 * 1e6:g} mm^2/s); "
                    "oil thins as it warms")
             nu100 = None
-        elif nu100 * 1e6 + _WALTHER_CONSTANT_MM2S <= 1.0:
+        elif nu100 * 1e6 + WALTHER_CONSTANT_MM2S <= 1.0:  # log10(log10(nu + 0.7)) needs nu + 0.7 > 1
             b.fail(path + ("viscosity_100c",), f"'{f['viscosity_100c']}' is too thin for the ASTM D341 relation "
                                                "(needs more than 0.3 mm^2/s)")
             nu100 = None

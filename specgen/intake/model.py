@@ -12,9 +12,8 @@ import math
 from dataclasses import dataclass, field
 from functools import cached_property
 
-# ISO VG grades whose typical 100 degC viscosity lies below 2 mm^2/s, where ISO 2909 defines no
-# viscosity index: no typical value exists for them (calc/fluid.py holds the values of the others).
-GRADES_WITHOUT_TYPICAL_100C = frozenset({2, 3, 5})
+from specgen.iso_vg import GRADES_WITHOUT_TYPICAL_100C
+
 
 
 @dataclass(frozen=True)
