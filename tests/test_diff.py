@@ -10,7 +10,8 @@ import pytest
 from revisions import commit, example_revision, git, make_repo
 from helpers import EXAMPLE, ROOT, minimal, run_cli
 from specgen.diff import compare, diff_inputs
-from specgen.pipeline import run_text
+from specgen.intake.read import load_text
+from specgen.pipeline import evaluate
 from specgen.present import diff_out
 from specgen.intake.content import fields
 
@@ -19,8 +20,12 @@ import yaml
 HEAVIER = {("track_left", "harvest"): "5 kN*m", ("track_right", "harvest"): "3.17 kN*m"}
 
 
+def evaluate_text(raw: bytes, name: str):
+    return evaluate(load_text(raw, name))
+
+
 def outcome(data: dict, name: str = "spec.yaml"):
-    return run_text(yaml.safe_dump(data, sort_keys=False).encode(), name)
+    return evaluate_text(yaml.safe_dump(data, sort_keys=False).encode(), name)
 
 
 def track_inputs() -> tuple[float, float, float]:
@@ -200,7 +205,7 @@ def test_invalid_spec_in_a_revision_names_it(repo, monkeypatch):
 
 @pytest.fixture(scope="module")
 def regression():
-    return compare(run_text(EXAMPLE.read_bytes(), "old.yaml"), run_text(example_revision(HEAVIER).encode(), "new.yaml"))
+    return compare(evaluate_text(EXAMPLE.read_bytes(), "old.yaml"), evaluate_text(example_revision(HEAVIER).encode(), "new.yaml"))
 
 
 def _cells(line: str) -> list[str]:

@@ -81,8 +81,8 @@ def test_pump_relations():
     assert q * 60e3 == pytest.approx(92.07, rel=1e-4)
     # P = q*p/eta_t; practical form P[kW] = q[L/min]*p[bar]/(600*eta_t)
     assert supply.input_power(q, 200e5, 0.85) / 1e3 == pytest.approx(92.07 * 200 / 600 / 0.85, rel=1e-4)
-    # input torque T = Vp*p/(2*pi*eta_hm) equals P/(2*pi*n) when eta_t = eta_v*eta_hm
+    # input torque T = P/(2*pi*n) equals Vp*p/(2*pi*eta_hm) when eta_t = eta_v*eta_hm (hand calc)
     eta_v, eta_hm = 0.93, 0.914
-    T = supply.input_torque(45e-6, 200e5, eta_hm)
     P = supply.input_power(supply.delivery(45e-6, 2200 / 60, eta_v), 200e5, eta_v * eta_hm)
-    assert T == pytest.approx(P / (2 * math.pi * 2200 / 60), rel=1e-9)
+    T = supply.input_torque(P, 2200 / 60)
+    assert T == pytest.approx(45e-6 * 200e5 / (2 * math.pi * eta_hm), rel=1e-9)
