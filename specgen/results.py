@@ -192,9 +192,14 @@ class Results:
         return sorted(found.values(), key=order)
 
     def _every_group(self):
-        for s in self.supplies:
-            yield s.values.values()
-            yield (v for r in self.supply_modes if r.supply == s.supply for v in r.trace.values())
+        modes_by_supply: dict[str, list[SupplyModeResult]] = {s.supply: [] for s in self.supplies}
+        for r in self.supply_modes:
+            modes_by_supply.setdefault(r.supply, []).append(r)
+        for supply, modes in modes_by_supply.items():
+            whole = self.supply_result(supply)
+            if whole is not None:
+                yield whole.values.values()
+            yield (v for r in modes for v in r.trace.values())
         for drive, duties in self.duties_by_drive.items():
             whole = self.drive_result(drive)
             if whole is not None:

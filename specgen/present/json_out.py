@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import hashlib
 import json
+import math
 
 from specgen import __version__
 from specgen.cautions import CAUTIONS
@@ -31,6 +32,11 @@ def assumed_list(results, system: str) -> list[dict]:
             item["value"], item["unit"] = convert(i.value, i.kind, system)
         out.append(item)
     return out
+
+
+def _margin(m: float | None) -> float | None:
+    """JSON has no infinity: a margin without a finite value (a need of zero) is written as null."""
+    return m if m is not None and math.isfinite(m) else None
 
 
 def _limit(x: float | None, kind: str, system: str) -> dict | None:
@@ -85,7 +91,7 @@ def document(o: Outcome, review=None) -> dict:
         "fluid": {k: _value(v, system) for k, v in r.fluid.values.items()},
         "checks": [
             {"id": c.id, "title": c.title, "status": c.status,
-             "value": _limit(c.value, c.kind, system), "limit": _limit(c.limit, c.kind, system), "margin": c.margin,
+             "value": _limit(c.value, c.kind, system), "limit": _limit(c.limit, c.kind, system), "margin": _margin(c.margin),
              "message": c.message,
              "where": {"drive": c.drive, "duty": c.duty, "supply": c.supply, "mode": c.mode}}
             for c in r.checks

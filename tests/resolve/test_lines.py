@@ -1,6 +1,6 @@
-"""Fluid and lines at the spec level: viscosity from the ISO VG grade (ISO 3448 + ASTM D341), line
-velocity, Reynolds number and friction factor checked against the `fluids` package as an
-independent reference, and the line losses added where the circuit feels them."""
+"""Lines at the spec level: line velocity, Reynolds number and friction factor checked against the
+`fluids` package as an independent reference, and the line losses added where the circuit feels
+them. The fluid's viscosity is tested in test_fluid.py."""
 
 import math
 
@@ -25,20 +25,6 @@ def lined(pressure_bore="12.7 mm", return_bore="16 mm"):
         "return": {"inner_diameter": return_bore, "length": "5 m"},
     }
     return d
-
-
-def test_viscosity_at_operating_temperature_is_traced_through_astm_d341():
-    o = outcome(lined())
-    nu = o.results.fluid.values["kinematic_viscosity"]
-    # ASTM D341 (Walther) through 46 mm^2/s at 40 degC and the VI-100 value 6.76 mm^2/s at 100 degC:
-    # W = log10(log10(nu + 0.7)); B = (W40 - W100)/(log10 373.15 - log10 313.15); read at 323.15 K
-    w = lambda v: math.log10(math.log10(v + 0.7))  # noqa: E731
-    b = (w(46) - w(6.76)) / (math.log10(373.15) - math.log10(313.15))
-    a = w(46) + b * math.log10(313.15)
-    expected = 10 ** (10 ** (a - b * math.log10(323.15))) - 0.7
-    assert nu.value * 1e6 == pytest.approx(expected, rel=1e-12)
-    assert 29 < expected < 32  # a VG 46 oil at 50 degC is near 30 mm^2/s (common practice, no source)
-    assert nu.source.startswith("ASTM D341") and nu.assumed  # the 100 degC point is a typical value
 
 
 def test_line_reynolds_and_friction_against_fluids():
@@ -97,15 +83,3 @@ def test_lines_need_a_fluid():
     with pytest.raises(SpecError) as e:
         outcome(d)
     assert "drives.hoist.lines: lines need the fluid's viscosity and density" in str(e.value)
-
-
-def test_measured_viscosity_at_100c_replaces_the_typical_value():
-    d = lined()
-    d["fluid"]["viscosity_100c"] = "8 mm^2/s"
-    o = outcome(d)
-    assert o.results.fluid["viscosity_100c"] == pytest.approx(8e-6)
-    assert not o.results.fluid.values["kinematic_viscosity"].assumed
-    d["fluid"]["viscosity_100c"] = "50 mm^2/s"
-    with pytest.raises(SpecError) as e:
-        outcome(d)
-    assert "fluid.viscosity_100c" in str(e.value) and "below" in str(e.value)
