@@ -282,3 +282,24 @@ def test_output_file_is_written(tmp_path, regression):
     target = tmp_path / "out" / "diff.md"
     code, out, _ = run_cli("diff", old, new, "--format", "markdown", "-o", target)
     assert code == 1 and out == "" and target.read_text(encoding="utf-8").startswith("### specgen diff")
+
+
+def test_values_of_one_drive_in_a_series_supply_are_compared_under_its_id():
+    def series(feed_torque: str) -> dict:
+        d = minimal()
+        d["supplies"]["main"]["circuit"] = "series"
+        d["drives"]["feed"] = {"supply": "main", "motor": {
+            "kind": "axial_piston", "displacement": "80 cm^3",
+            "efficiency": {"volumetric": 0.95, "hydromechanical": 0.9, "starting": 0.85}},
+            "duty_points": {"run": {"torque": feed_torque, "speed": "600 rpm"}}}
+        d["modes"]["work"]["drives"]["feed"] = "run"
+        return d
+
+    d = compare(outcome(series("100 N*m")), outcome(series("120 N*m")))
+    moved = {(v.owner.scope, v.owner.ids, v.key): v for v in d.values}
+    # feed is last along the line: hoist's outlet is feed's inlet, 5 bar + 2*pi*T/(80e-6*0.9) (hand calc)
+    inlet = moved[("supply_mode_drive", ("main", "work", "feed"), "inlet_pressure")]
+    assert inlet.delta == pytest.approx(2 * math.pi * 20 / (80e-6 * 0.9))
+    assert moved[("supply_mode_drive", ("main", "work", "hoist"), "outlet_pressure")].delta == pytest.approx(inlet.delta)
+    assert ("supply_mode_drive", ("main", "work", "feed"), "outlet_pressure") not in moved  # the return: unchanged
+    assert all("[" not in v.key for v in d.values)
