@@ -71,8 +71,9 @@ def test_fluid_result_is_a_record_with_values():
 
 
 def test_assumed_walks_every_input_and_lists_each_once_in_the_spec_order():
-    eta = lambda which, x: Input("eta", which, x, "ratio", True, ("drives", "hoist", "motor", "efficiency", which),  # noqa: E731
-                                  "typical")
+    def eta(which, x):
+        return Input("eta", which, x, "ratio", True, ("drives", "hoist", "motor", "efficiency", which), "typical")
+
     gear = Input("eta_g", "gear", 0.95, "ratio", True, ("drives", "hoist", "gear_stage", "efficiency"), "typical")
     pump = Input("eta_t", "pump", 0.85, "ratio", True, ("supplies", "main", "pump", "overall_efficiency"), "typical")
     unnamed = Input("VG", "grade", 46, "number", True)  # marks a value as resting on a listed assumption

@@ -33,8 +33,8 @@ def displacement_choice(machine: Machine, results: Results, fmt: Fmt) -> Iterato
                 st = status(margin)
                 hint = f"; proposed size {fmt(proposed.value, 'displacement')}" if proposed else ""
                 yield Check("displacement_choice", TITLE_TARGET, st, have, need, "displacement",
-                            f"Displacement {fmt(have, 'displacement')} against the {fmt(need, 'displacement')} needed at "
-                            f"the target pressure {fmt(drive.motor.target_pressure, 'pressure')}{hint}"
+                            f"Displacement {fmt(have, 'displacement')} against the {fmt(need, 'displacement')} "
+                            f"needed at the target pressure {fmt(drive.motor.target_pressure, 'pressure')}{hint}"
                             + ("." if st == "pass" else ": the drive needs more pressure than the target."),
                             drive=drive.id, margin=margin)
             elif proposed is None:

@@ -36,9 +36,9 @@ def pressure_margin(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Ch
             "pass": f"leaves enough margin below the {setting}",
         }[st]
         what = "Inlet pressure plus pressure-line loss" if with_line else "Inlet pressure"
-        against_ = "compensator" if sup.compensated else "relief"
+        device = "compensator" if sup.compensated else "relief"
         yield Check("pressure_margin", "Pressure margin to relief", st, margin, warn, "ratio",
-                    f"{what} {fmt(p_in, 'pressure')} against {against_} {fmt(relief, 'pressure')} "
+                    f"{what} {fmt(p_in, 'pressure')} against {device} {fmt(relief, 'pressure')} "
                     f"(margin {margin:.1%}) {text}.", drive=r.drive, duty=r.duty, margin=margin)
 
 

@@ -91,7 +91,8 @@ def document(o: Outcome, review=None) -> dict:
         "fluid": {k: _value(v, system) for k, v in r.fluid.values.items()},
         "checks": [
             {"id": c.id, "title": c.title, "status": c.status,
-             "value": _limit(c.value, c.kind, system), "limit": _limit(c.limit, c.kind, system), "margin": _margin(c.margin),
+             "value": _limit(c.value, c.kind, system), "limit": _limit(c.limit, c.kind, system),
+             "margin": _margin(c.margin),
              "message": c.message,
              "where": {"drive": c.drive, "duty": c.duty, "supply": c.supply, "mode": c.mode}}
             for c in r.checks

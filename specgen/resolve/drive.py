@@ -84,7 +84,8 @@ def _size(drive: Drive, rec: Record, motor_torques: dict, p_out: float, sizing: 
     vg = rec.put(Value("minimum_displacement", "Smallest displacement for every duty point", "Vg_min",
                        per_duty[governing].value, "displacement", "Vg_min = max(Vg_min,i)",
                        "the largest of the duty points' minimum displacements",
-                       tuple(Input(indexed("Vg_min", k), f"at {k}", v.value, "displacement") for k, v in per_duty.items()),
+                       tuple(Input(indexed("Vg_min", k), f"at {k}", v.value, "displacement")
+                             for k, v in per_duty.items()),
                        SRC_SIZING, note=f"governing duty point: {governing}"))
     vg_in = Input("Vg_min", "smallest displacement", vg, "displacement")
     if sizing.stock is not None:
