@@ -10,7 +10,7 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from functools import cached_property
 
-from specgen.checks.status import Check, most_severe
+from specgen.checks.status import SEVERITY, Check, most_severe
 from specgen.trace import Input, Value
 
 __all__ = ["Check", "Contribution", "DriveResult", "DutyResult", "FluidResult", "ModeResult", "Results",
@@ -210,7 +210,7 @@ class Results:
         yield self.fluid.values.values()
 
     def counts(self) -> dict[str, int]:
-        out = {"pass": 0, "warn": 0, "fail": 0}
+        out = dict.fromkeys(SEVERITY, 0)
         for c in self.checks:
             out[c.status] += 1
         return out
