@@ -23,6 +23,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+from specgen.checks.status import RANK
 from specgen.pipeline import Outcome
 from specgen.intake.content import common_kind, si_value
 from specgen.intake.schema import Field, fields
@@ -30,7 +31,6 @@ from specgen.intake.schema import Field, fields
 INPUT_TOLERANCE = 1e-4  # 0.01 %: a value converted to 4-5 significant figures is the same value
 RESULT_TOLERANCE = 1e-4
 ABSOLUTE_FLOOR = 1e-12  # SI; only decides between exactly zero and a computed near-zero
-SEVERITY = {"pass": 0, "warn": 1, "fail": 2}
 FAIL_ON = ("warn", "fail")
 
 
@@ -56,6 +56,7 @@ class InputChange:
 SCOPES = {
     "duty_point": (("drive", "duty"), ("drive", "duty point")),
     "supply_mode": (("supply", "mode"), ("supply", "mode")),
+    "supply_mode_drive": (("supply", "mode", "drive"), ("supply", "mode", "drive")),
     "drive": (("drive",), ("drive",)),
     "supply": (("supply",), ("supply",)),
     "mode": (("mode",), ("mode",)),
@@ -171,7 +172,7 @@ class Diff:
 
     def regressions(self, at: str = "warn") -> tuple[CheckChange, ...]:
         """Checks that got worse and now stand at ``at`` or beyond ("warn" counts fail too)."""
-        return tuple(c for c in self.checks if c.regression and SEVERITY[c.regression] >= SEVERITY[at])
+        return tuple(c for c in self.checks if c.regression and RANK[c.regression] >= RANK[at])
 
     def exit_status(self, fail_on: str = "fail") -> int:
         """0 no regression at ``fail_on`` severity or beyond, 1 otherwise."""
@@ -245,12 +246,14 @@ def _result_items(outcome: Outcome) -> dict[Owner, dict]:
     """Every group of computed values, by owner, in the order the results hold them."""
     r = outcome.results
     items = {Owner("duty_point", (d.drive, d.duty)): d.values for d in r.duties}
-    items.update({Owner("supply_mode", (s.supply, s.mode)): s.values for s in r.supply_modes})
+    for s in r.supply_modes:
+        items[Owner("supply_mode", (s.supply, s.mode))] = s.values
+        items.update({Owner("supply_mode_drive", (s.supply, s.mode, d)): v for d, v in s.per_drive.items()})
     items.update({Owner("drive", (d.drive,)): d.values for d in getattr(r, "drives", ()) if d.values})
     items.update({Owner("supply", (s.supply,)): s.values for s in getattr(r, "supplies", ()) if s.values})
     items.update({Owner("mode", (m.mode,)): m.values for m in getattr(r, "modes", ()) if m.values})
-    if getattr(r, "fluid", None):
-        items[Owner("fluid")] = r.fluid
+    if r.fluid.values:
+        items[Owner("fluid")] = r.fluid.values
     return items
 
 
@@ -299,7 +302,7 @@ def _record(c_old, c_new, change: str) -> CheckChange:
 def _rank(c: CheckChange) -> tuple:
     order = {"worse": 0, "added": 1, "better": 2, "removed": 3, "moved": 4}
     regression_first = 0 if c.regression else 1
-    return (regression_first, -SEVERITY.get(c.new_status or "pass", 0) if c.regression else 0, order[c.change])
+    return (regression_first, -RANK.get(c.new_status or "pass", 0) if c.regression else 0, order[c.change])
 
 
 def diff_checks(old: Outcome, new: Outcome) -> tuple[list[CheckChange], list[CheckChange]]:
@@ -310,8 +313,8 @@ def diff_checks(old: Outcome, new: Outcome) -> tuple[list[CheckChange], list[Che
         co = a.get(key)
         if co is None:
             changes.append(_record(None, cn, "added"))
-        elif SEVERITY[cn.status] != SEVERITY[co.status]:
-            changes.append(_record(co, cn, "worse" if SEVERITY[cn.status] > SEVERITY[co.status] else "better"))
+        elif RANK[cn.status] != RANK[co.status]:
+            changes.append(_record(co, cn, "worse" if RANK[cn.status] > RANK[co.status] else "better"))
         elif (co.value is None) != (cn.value is None) or (
                 co.value is not None and not _close(co.value, cn.value, RESULT_TOLERANCE)):
             changes.append(_record(co, cn, "moved"))

@@ -1,18 +1,19 @@
-"""The build as a visible pipeline: load -> validate -> compute -> check. Rendering comes after."""
+"""The build as a visible pipeline: read -> validate and build -> resolve -> check. Rendering comes after."""
 
 from __future__ import annotations
 
 from dataclasses import dataclass
 from pathlib import Path
+from typing import Callable
 
-from specgen.resolve.load import decide_directions
-from specgen.resolve.machine import resolve
 from specgen.checks import run_checks
 from specgen.heap import few_full_collections
-from specgen.results import Results
-from specgen.intake.read import Source, load_file, load_text
 from specgen.intake.model import Machine
+from specgen.intake.read import Source, load_file
 from specgen.intake.validate import build
+from specgen.resolve.load import decide_directions
+from specgen.resolve.machine import resolve
+from specgen.results import Results
 
 
 @dataclass(frozen=True)
@@ -24,18 +25,18 @@ class Outcome:
 
 def evaluate(source: Source, allow_outside_files: bool = False) -> Outcome:
     """``allow_outside_files``: a file the spec names (a parts file) may lie outside its folder tree."""
-    with few_full_collections():  # these stages make no cyclic garbage to sweep for (specgen/heap.py)
-        machine = build(source, decide_directions, allow_outside_files=allow_outside_files)
-        results = run_checks(machine, resolve(machine))
-    return Outcome(source, machine, results)
+    return _outcome(lambda: source, allow_outside_files)
 
 
 def run_file(path: str | Path, allow_outside_files: bool = False) -> Outcome:
     """Load, validate, compute and check one spec file. Raises SpecError for bad input."""
-    with few_full_collections():
-        return evaluate(load_file(path), allow_outside_files=allow_outside_files)
+    return _outcome(lambda: load_file(path), allow_outside_files)
 
 
-def run_text(raw: bytes, name: str) -> Outcome:
+def _outcome(read: Callable[[], Source], allow_outside_files: bool) -> Outcome:
+    """The one entry to the stages; they make no cyclic garbage to sweep for (specgen/heap.py)."""
     with few_full_collections():
-        return evaluate(load_text(raw, name))
+        source = read()
+        machine = build(source, decide_directions, allow_outside_files=allow_outside_files)
+        results = run_checks(machine, resolve(machine))
+    return Outcome(source, machine, results)

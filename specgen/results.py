@@ -1,22 +1,42 @@
-"""The one results object every output reads: computed values with traces, and checks."""
+"""The one results object every output reads: computed values with traces, and checks.
+
+Results are keyed by id: a supply-mode's per-drive values sit in a mapping by drive id, a mode's
+heat load keeps its parts by supply id, and a drive's duty results are found by drive and duty id.
+No id is ever read back out of a symbol or a label.
+"""
 
 from __future__ import annotations
 
 from dataclasses import dataclass, field
 from functools import cached_property
 
-from specgen.trace import Value
+from specgen.checks.status import SEVERITY, Check, most_severe
+from specgen.trace import Input, Value
+
+__all__ = ["Check", "Contribution", "DriveResult", "DutyResult", "FluidResult", "ModeResult", "Results",
+           "SupplyModeResult", "SupplyResult"]
+
+
+class _ValuesByKey:
+    """``result[key]`` is the SI number of ``result.values[key]``; ``trace`` is every value in order."""
+
+    values: dict[str, Value]
+
+    def __getitem__(self, key: str) -> float:
+        return self.values[key].value
+
+    @property
+    def trace(self) -> dict:
+        """Every value of this result in the order computed (here: ``values``)."""
+        return self.values
 
 
 @dataclass(frozen=True)
-class DutyResult:
+class DutyResult(_ValuesByKey):
     drive: str
     duty: str
     direction: str
     values: dict[str, Value]  # ordered as computed
-
-    def __getitem__(self, key: str) -> float:
-        return self.values[key].value
 
 
 @dataclass(frozen=True)
@@ -27,23 +47,26 @@ class Contribution:
 
 
 @dataclass(frozen=True)
-class SupplyModeResult:
+class SupplyModeResult(_ValuesByKey):
+    """A supply in one mode. ``values``: the supply's own; ``per_drive``: drive id -> {key: Value}
+    for what belongs to one running drive (series inlet and outlet pressure, makeup flow left)."""
+
     supply: str
     mode: str
     contributions: tuple[Contribution, ...]
     values: dict[str, Value]
+    per_drive: dict[str, dict[str, Value]] = field(default_factory=dict)
+    order: tuple = ()  # keys in the order computed: a key of values, or (drive id, key) of per_drive
 
-    def __getitem__(self, key: str) -> float:
-        return self.values[key].value
+    def drive_value(self, drive: str, key: str) -> Value | None:
+        return self.per_drive.get(drive, {}).get(key)
 
-
-class _ValuesByKey:
-    """``result[key]`` is the SI number of ``result.values[key]``."""
-
-    values: dict[str, Value]
-
-    def __getitem__(self, key: str) -> float:
-        return self.values[key].value
+    @property
+    def trace(self) -> dict:
+        """Every value in the order computed, the per-drive ones keyed (drive id, key)."""
+        if not self.order:
+            return self.values
+        return {k: self.per_drive[k[0]][k[1]] if isinstance(k, tuple) else self.values[k] for k in self.order}
 
 
 @dataclass(frozen=True)
@@ -53,6 +76,7 @@ class DriveResult(_ValuesByKey):
     drive: str
     values: dict[str, Value]
     envelope: tuple = ()  # calc.variable.EnvelopePoint rows at the relief setting, smallest displacement first
+    proposed_from: str | None = None  # where a proposed size comes from: a series name ("R10") or "stocked"
 
 
 @dataclass(frozen=True)
@@ -71,29 +95,22 @@ class ModeResult(_ValuesByKey):
 
     mode: str
     values: dict[str, Value]
+    heat_by_supply: dict[str, float] = field(default_factory=dict)  # supply id -> its heat load, W
 
 
 @dataclass(frozen=True)
-class Check:
-    """One verdict. ``value`` and ``limit`` are SI floats of ``kind`` (None where not numeric)."""
+class FluidResult(_ValuesByKey):
+    """Viscosity and density at the operating temperature (no values without a fluid)."""
 
-    id: str
-    title: str
-    status: str  # "pass", "warn" or "fail"
-    value: float | None
-    limit: float | None
-    kind: str
-    message: str
-    drive: str | None = None
-    duty: str | None = None
-    supply: str | None = None
-    mode: str | None = None
+    values: dict[str, Value] = field(default_factory=dict)
 
-    @property
-    def where(self) -> str:
-        parts = [f"{k} {v}" for k, v in (("drive", self.drive), ("duty point", self.duty),
-                                          ("supply", self.supply), ("mode", self.mode)) if v]
-        return ", ".join(parts)
+
+# The order assumed values are listed in within one supply, drive or the fluid: the spec's own order.
+ASSUMED_FIELDS = (("pump", "volumetric_efficiency"), ("pump", "overall_efficiency"),
+                  ("motor", "efficiency", "volumetric"), ("motor", "efficiency", "hydromechanical"),
+                  ("motor", "efficiency", "starting"), ("gear_stage", "efficiency"),
+                  ("viscosity_100c",), ("density",))
+_OWNED = ("supplies", "drives")  # spec sections whose second key is an id
 
 
 @dataclass(frozen=True)
@@ -104,7 +121,7 @@ class Results:
     drives: tuple[DriveResult, ...] = ()
     supplies: tuple[SupplyResult, ...] = ()
     modes: tuple[ModeResult, ...] = ()
-    fluid: dict[str, Value] = field(default_factory=dict)  # viscosity and density at the operating temperature
+    fluid: FluidResult = field(default_factory=FluidResult)
 
     def drive_result(self, drive: str) -> DriveResult | None:
         return self._drives_by_id.get(drive)
@@ -115,7 +132,19 @@ class Results:
     def mode_result(self, mode: str) -> ModeResult | None:
         return self._modes_by_id.get(mode)
 
+    def drive_duties(self, drive: str) -> dict[str, DutyResult]:
+        """The duty results of one drive keyed by duty id, in the spec's order (empty for no drive)."""
+        return self.duties_by_drive.get(drive, {})
+
     # Indexes built on first use, so lookups inside loops over every duty point stay linear.
+    @cached_property
+    def duties_by_drive(self) -> dict[str, dict[str, DutyResult]]:
+        """drive id -> {duty id -> DutyResult}."""
+        out: dict[str, dict[str, DutyResult]] = {}
+        for r in self.duties:
+            out.setdefault(r.drive, {})[r.duty] = r
+        return out
+
     @cached_property
     def _drives_by_id(self) -> dict[str, DriveResult]:
         return {r.drive: r for r in self.drives}
@@ -129,26 +158,63 @@ class Results:
         return {r.mode: r for r in self.modes}
 
     @cached_property
-    def _duties_by_id(self) -> dict[tuple[str, str], DutyResult]:
-        return {(r.drive, r.duty): r for r in self.duties}
-
-    @cached_property
     def _supply_modes_by_id(self) -> dict[tuple[str, str], SupplyModeResult]:
         return {(r.supply, r.mode): r for r in self.supply_modes}
 
     def duty(self, drive: str, duty: str) -> DutyResult:
-        return self._duties_by_id[(drive, duty)]
+        return self.duties_by_drive[drive][duty]
 
     def supply_mode(self, supply: str, mode: str) -> SupplyModeResult:
         return self._supply_modes_by_id[(supply, mode)]
 
+    def assumed(self) -> list[Input]:
+        """Every assumed input the computed values rest on, once each (by the spec field it stands for).
+
+        Walks every Value's inputs: each supply (its own values, then its modes), each drive (its own
+        values, then its duty points), each mode, the fluid. Listed by supply, drive, fluid in that
+        order and within each in the spec's order of fields (ASSUMED_FIELDS). An assumed input that
+        names no spec field is left out: it marks a value as resting on another listed assumption.
+        """
+        found: dict[tuple, Input] = {}
+        for values in self._every_group():
+            for v in values:
+                for i in v.inputs:
+                    if i.assumed and i.where:
+                        found.setdefault(i.where, i)
+        owners: dict[tuple, int] = {}
+
+        def order(i: Input) -> tuple[int, int]:
+            split = 2 if i.where[0] in _OWNED else 1
+            owner, rest = i.where[:split], i.where[split:]
+            rank = ASSUMED_FIELDS.index(rest) if rest in ASSUMED_FIELDS else len(ASSUMED_FIELDS)
+            return owners.setdefault(owner, len(owners)), rank
+
+        return sorted(found.values(), key=order)
+
+    def _every_group(self):
+        modes_by_supply: dict[str, list[SupplyModeResult]] = {s.supply: [] for s in self.supplies}
+        for r in self.supply_modes:
+            modes_by_supply.setdefault(r.supply, []).append(r)
+        for supply, modes in modes_by_supply.items():
+            whole = self.supply_result(supply)
+            if whole is not None:
+                yield whole.values.values()
+            yield (v for r in modes for v in r.trace.values())
+        for drive, duties in self.duties_by_drive.items():
+            whole = self.drive_result(drive)
+            if whole is not None:
+                yield whole.values.values()
+            yield (v for r in duties.values() for v in r.values.values())
+        for m in self.modes:
+            yield m.values.values()
+        yield self.fluid.values.values()
+
     def counts(self) -> dict[str, int]:
-        out = {"pass": 0, "warn": 0, "fail": 0}
+        out = dict.fromkeys(SEVERITY, 0)
         for c in self.checks:
             out[c.status] += 1
         return out
 
     @property
     def verdict(self) -> str:
-        c = self.counts()
-        return "fail" if c["fail"] else "warn" if c["warn"] else "pass"
+        return most_severe(c.status for c in self.checks)

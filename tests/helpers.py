@@ -83,8 +83,3 @@ def spec_check(data: dict, check_id: str, **where):
 # A value exactly at its limit fails under the status rule every check shares ("fail" at or past
 # the limit). Tests of checks that still pass or warn there carry this strict mark: they report
 # the gap now and turn red as soon as the check fails at its limit, when the mark goes.
-def limit_not_failed_yet():
-    import pytest
-
-    return pytest.mark.xfail(strict=True, raises=AssertionError,
-                             reason="this check does not fail a value exactly at its limit")

@@ -10,7 +10,8 @@ import pytest
 from revisions import commit, example_revision, git, make_repo
 from helpers import EXAMPLE, ROOT, minimal, run_cli
 from specgen.diff import compare, diff_inputs
-from specgen.pipeline import run_text
+from specgen.intake.read import load_text
+from specgen.pipeline import evaluate
 from specgen.present import diff_out
 from specgen.intake.content import fields
 
@@ -19,8 +20,12 @@ import yaml
 HEAVIER = {("track_left", "harvest"): "5 kN*m", ("track_right", "harvest"): "3.17 kN*m"}
 
 
+def evaluate_text(raw: bytes, name: str):
+    return evaluate(load_text(raw, name))
+
+
 def outcome(data: dict, name: str = "spec.yaml"):
-    return run_text(yaml.safe_dump(data, sort_keys=False).encode(), name)
+    return evaluate_text(yaml.safe_dump(data, sort_keys=False).encode(), name)
 
 
 def track_inputs() -> tuple[float, float, float]:
@@ -200,7 +205,7 @@ def test_invalid_spec_in_a_revision_names_it(repo, monkeypatch):
 
 @pytest.fixture(scope="module")
 def regression():
-    return compare(run_text(EXAMPLE.read_bytes(), "old.yaml"), run_text(example_revision(HEAVIER).encode(), "new.yaml"))
+    return compare(evaluate_text(EXAMPLE.read_bytes(), "old.yaml"), evaluate_text(example_revision(HEAVIER).encode(), "new.yaml"))
 
 
 def _cells(line: str) -> list[str]:
@@ -277,3 +282,24 @@ def test_output_file_is_written(tmp_path, regression):
     target = tmp_path / "out" / "diff.md"
     code, out, _ = run_cli("diff", old, new, "--format", "markdown", "-o", target)
     assert code == 1 and out == "" and target.read_text(encoding="utf-8").startswith("### specgen diff")
+
+
+def test_values_of_one_drive_in_a_series_supply_are_compared_under_its_id():
+    def series(feed_torque: str) -> dict:
+        d = minimal()
+        d["supplies"]["main"]["circuit"] = "series"
+        d["drives"]["feed"] = {"supply": "main", "motor": {
+            "kind": "axial_piston", "displacement": "80 cm^3",
+            "efficiency": {"volumetric": 0.95, "hydromechanical": 0.9, "starting": 0.85}},
+            "duty_points": {"run": {"torque": feed_torque, "speed": "600 rpm"}}}
+        d["modes"]["work"]["drives"]["feed"] = "run"
+        return d
+
+    d = compare(outcome(series("100 N*m")), outcome(series("120 N*m")))
+    moved = {(v.owner.scope, v.owner.ids, v.key): v for v in d.values}
+    # feed is last along the line: hoist's outlet is feed's inlet, 5 bar + 2*pi*T/(80e-6*0.9) (hand calc)
+    inlet = moved[("supply_mode_drive", ("main", "work", "feed"), "inlet_pressure")]
+    assert inlet.delta == pytest.approx(2 * math.pi * 20 / (80e-6 * 0.9))
+    assert moved[("supply_mode_drive", ("main", "work", "hoist"), "outlet_pressure")].delta == pytest.approx(inlet.delta)
+    assert ("supply_mode_drive", ("main", "work", "feed"), "outlet_pressure") not in moved  # the return: unchanged
+    assert all("[" not in v.key for v in d.values)

@@ -17,7 +17,8 @@ from hypothesis import given, strategies as st
 
 from helpers import EXAMPLE, ROOT, example_data, value_paths
 from specgen.errors import SpecError
-from specgen.pipeline import run_text
+from specgen.intake.read import load_text
+from specgen.pipeline import evaluate
 from specgen.present import json_out, text
 
 # The demo, and a second demo with series circuits, load models and a parts file (named by its
@@ -42,6 +43,10 @@ SCALARS = st.one_of(st.none(), st.booleans(), NUMBERS, st.text(max_size=30), QUA
 VALUES = st.recursive(SCALARS, lambda inner: st.one_of(st.lists(inner, max_size=3),
                                                        st.dictionaries(st.text(max_size=8), inner, max_size=3)),
                       max_leaves=6)
+
+
+def evaluate_text(raw: bytes, name: str):
+    return evaluate(load_text(raw, name))
 
 
 def get(node, path):
@@ -105,7 +110,7 @@ def mutated_bytes(draw):
 
 def outcome_or_clean_error(name: str, raw: bytes) -> None:
     try:
-        outcome = run_text(raw, name)
+        outcome = evaluate_text(raw, name)
     except SpecError as exc:
         assert exc.problems, "a SpecError must carry at least one problem"
         for p in exc.problems:
@@ -137,4 +142,4 @@ def test_random_bytes_give_result_or_clean_error(raw):
 @pytest.mark.parametrize("name, data, text", BASES, ids=[Path(b[0]).name for b in BASES])
 def test_unmutated_demo_computes(name, data, text):
     """The fuzzer's starting points are valid, so mutations explore near a working spec."""
-    assert run_text(text, name).results.verdict in ("pass", "warn", "fail")
+    assert evaluate_text(text, name).results.verdict in ("pass", "warn", "fail")

@@ -30,6 +30,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from specgen.calc.guards import non_negative as _non_negative, efficiency as _efficiency
+from specgen.calc import supply
 
 # Demand within this relative margin above delivery counts as equal (rounding
 # of flows computed elsewhere).
@@ -106,7 +107,7 @@ def fixed_pump_heat(
     q_demand = min(q_demand, q_pump)
     shaft_power = _check_shaft_power(shaft_power, q_demand * p_pump)
     hydraulic_out = q_pump * p_pump
-    pump_input = hydraulic_out / eta_t
+    pump_input = supply.input_power(q_pump, p_pump, eta_t)
     return HeatBreakdown(
         pump_input=pump_input,
         shaft_power=shaft_power,
@@ -147,7 +148,7 @@ def compensated_pump_heat(
     q_standby = _non_negative("standby flow", standby_flow)
     shaft_power = _check_shaft_power(shaft_power, q_demand * p_comp)
     hydraulic_out = (q_demand + q_standby) * p_comp
-    pump_input = hydraulic_out / eta_t
+    pump_input = supply.input_power(q_demand + q_standby, p_comp, eta_t)
     return HeatBreakdown(
         pump_input=pump_input,
         shaft_power=shaft_power,

@@ -263,11 +263,6 @@ def speed_squared_torque(reference_torque: float, reference_speed: float, speed:
     return reference_torque * (speed / reference_speed) ** 2
 
 
-def speed_squared_load(reference_torque: float, reference_speed: float, speed: float) -> ShaftLoad:
-    """:func:`speed_squared_torque` paired with its speed as a :class:`ShaftLoad`."""
-    return ShaftLoad(torque=speed_squared_torque(reference_torque, reference_speed, speed), speed=float(speed))
-
-
 # --- inertia -----------------------------------------------------------------
 
 

@@ -26,9 +26,11 @@ def input_power(flow: float, pressure: float, eta_t: float) -> float:
     return flow * pressure / eta_t
 
 
-def input_torque(displacement: float, pressure: float, eta_hm: float) -> float:
-    """Shaft torque the pump takes  T = Vp * p / (2 pi * eta_hm)  (N*m).
+def input_torque(power: float, shaft_speed: float) -> float:
+    """Shaft torque that takes ``power`` at ``shaft_speed``  T = P / (2 pi * n)  (N*m); the pump's
+    input torque at its shaft speed, or the prime mover's at its own speed.
 
-    Example: 45 cm^3/rev at 200 bar, eta_hm 0.914: 45 * 200 / (62.83 * 0.914) = 156.7 N*m.
+    Equals Vp * p / (2 pi * eta_hm) for a pump when P = q * p / eta_t and eta_t = eta_v * eta_hm.
+    Example: 36.11 kW at 2200 rpm: 36110 / (2 pi * 36.67) = 156.7 N*m.
     """
-    return displacement * pressure / (2.0 * math.pi * eta_hm)
+    return power / (2.0 * math.pi * shaft_speed)

@@ -4,11 +4,12 @@ from __future__ import annotations
 
 import hashlib
 import json
+import math
 
 from specgen import __version__
 from specgen.cautions import CAUTIONS
 from specgen.pipeline import Outcome
-from specgen.present.values import assumed_inputs, convert
+from specgen.present.values import convert
 from specgen.trace import Value
 from specgen.units import KINDS
 
@@ -19,6 +20,23 @@ def _value(v: Value, system: str) -> dict:
     number, unit = convert(v.value, v.kind, system)
     return {"label": v.label, "value": number, "unit": unit, "si_value": v.value,
             "si_unit": KINDS[v.kind].si_unit.replace("**", "^"), "assumed": v.assumed}
+
+
+def assumed_list(results, system: str) -> list[dict]:
+    """Every assumed input the results rest on (Results.assumed), once each: its spec path, its
+    value (a ratio as a plain number, anything else in the display units, with "unit") and basis."""
+    out = []
+    for i in results.assumed():
+        item = {"where": ".".join(i.where), "value": i.value, "basis": i.basis}
+        if i.kind not in ("ratio", "number"):
+            item["value"], item["unit"] = convert(i.value, i.kind, system)
+        out.append(item)
+    return out
+
+
+def _margin(m: float | None) -> float | None:
+    """JSON has no infinity: a margin without a finite value (a need of zero) is written as null."""
+    return m if m is not None and math.isfinite(m) else None
 
 
 def _limit(x: float | None, kind: str, system: str) -> dict | None:
@@ -52,7 +70,8 @@ def document(o: Outcome, review=None) -> dict:
              "contributions": [{"drive": c.drive, "duty": c.duty,
                                 **dict(zip(("flow", "unit"), convert(c.flow, "flow", system)))}
                                for c in s.contributions],
-             "values": {k: _value(v, system) for k, v in s.values.items()}}
+             "values": {k: _value(v, system) for k, v in s.values.items()},
+             "per_drive": {d: {k: _value(v, system) for k, v in values.items()} for d, values in s.per_drive.items()}}
             for s in r.supply_modes
         ],
         "drives": [
@@ -69,15 +88,16 @@ def document(o: Outcome, review=None) -> dict:
             for s in r.supplies
         ],
         "modes": [{"mode": m.mode, "values": {k: _value(v, system) for k, v in m.values.items()}} for m in r.modes],
-        "fluid": {k: _value(v, system) for k, v in r.fluid.items()},
+        "fluid": {k: _value(v, system) for k, v in r.fluid.values.items()},
         "checks": [
             {"id": c.id, "title": c.title, "status": c.status,
              "value": _limit(c.value, c.kind, system), "limit": _limit(c.limit, c.kind, system),
+             "margin": _margin(c.margin),
              "message": c.message,
              "where": {"drive": c.drive, "duty": c.duty, "supply": c.supply, "mode": c.mode}}
             for c in r.checks
         ],
-        "assumed": assumed_inputs(o.machine),
+        "assumed": assumed_list(r, system),
         **({"review": review.as_dict()} if review is not None else {}),
         "cautions": [{"title": t, "text": x} for t, x in CAUTIONS],
     }

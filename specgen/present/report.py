@@ -460,7 +460,7 @@ def _symbols(o: Outcome) -> list[dict]:
     """Each symbol used in the traces once, with its meaning, for the legend above them."""
     seen: dict[str, str] = {}
     r = o.results
-    groups = [x.values for x in (*r.duties, *r.supply_modes, *r.drives, *r.supplies, *r.modes)] + [r.fluid]
+    groups = [x.trace for x in (*r.duties, *r.supply_modes, *r.drives, *r.supplies, *r.modes, r.fluid)]
     for values in groups:
         for v in values.values():
             seen.setdefault(v.symbol, v.label)
@@ -529,7 +529,7 @@ def _supply_context(o: Outcome, sup, system: str, checks: list[dict], fig_n, dra
         traces.append(_trace_block(f"supply-{slug(sup.id)}-all", "All modes", whole.values, system, checks))
     for x in modes:
         title = next((md.title for md in m.modes if md.id == x.mode), x.mode)
-        block = _trace_block(f"mode-{slug(x.supply)}-{slug(x.mode)}", f"Mode {title}", x.values, system, checks)
+        block = _trace_block(f"mode-{slug(x.supply)}-{slug(x.mode)}", f"Mode {title}", x.trace, system, checks)
         block["mode"] = x.mode
         traces.append(block)
     return {
@@ -590,7 +590,7 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
     drives = [_drive_context(o, d, system, checks, fig_n, draw) for d in m.drives]
     mode_traces = [_trace_block(f"mode-{slug(x.mode)}", f"Mode {x.mode}", x.values, system, checks)
                    for x in r.modes if x.values]
-    fluid_values = r.fluid
+    fluid_values = r.fluid.values
     if own_batch:
         draw.draw()
     fp_footer = f"{m.title[:80]} - rev {m.revision} - spec sha256 {fp.short}"

@@ -3,8 +3,10 @@
 from __future__ import annotations
 
 from specgen.cautions import SHORT
+from specgen.checks.status import RANK
 from specgen.pipeline import Outcome
-from specgen.present.values import assumed_inputs, format_si
+from specgen.present.json_out import assumed_list
+from specgen.present.values import format_si
 
 DUTY_COLUMNS = (
     ("motor_torque", "T motor"), ("motor_speed", "n motor"), ("pressure_differential", "dp"),
@@ -15,8 +17,6 @@ SUPPLY_COLUMNS = (
     ("flow_demand", "demand"), ("pump_delivery", "delivery"), ("flow_surplus", "surplus"),
     ("working_pressure", "p work"), ("pump_input_power", "P pump in"), ("prime_mover_power", "P available"),
 )
-ORDER = {"fail": 0, "warn": 1, "pass": 2}
-
 
 def table(header: list[str], rows: list[list[str]]) -> list[str]:
     widths = [max(len(r[i]) for r in [header] + rows) for i in range(len(header))]
@@ -32,16 +32,16 @@ def headline(o: Outcome) -> str:
 
 
 def checks_lines(o: Outcome, only_problems: bool) -> list[str]:
-    checks = sorted(o.results.checks, key=lambda c: ORDER[c.status])
+    checks = sorted(o.results.checks, key=lambda c: -RANK[c.status])
     if only_problems:
         checks = [c for c in checks if c.status != "pass"]
     return [f"{c.status.upper():4}  {c.id:20} {c.where}: {c.message}" for c in checks]
 
 
-def depth_lines(o: Outcome, system: str) -> list[str]:
+def fluid_sizing_heat_lines(o: Outcome, system: str) -> list[str]:
     """Fluid, sizing and variable-motor values, and each mode's heat load, one line each."""
     r = o.results
-    picked = [("fluid", v) for v in r.fluid.values()]
+    picked = [("fluid", v) for v in r.fluid.values.values()]
     picked += [(f"drive {d.drive}", v) for d in r.drives for v in d.values.values()]
     picked += [(f"supply {s.supply}", v) for s in r.supplies for k, v in s.values.items() if k.startswith("worst_")]
     picked += [(f"mode {m.mode}", v) for m in r.modes for v in m.values.values()]
@@ -70,11 +70,11 @@ def render(o: Outcome, quiet: bool = False, review=None) -> str:
                 format_si(r.values[k].value, r.values[k].kind, system) if k in r.values else "-"
                 for k, _ in SUPPLY_COLUMNS])
         out += table(["supply", "mode"] + [h for _, h in SUPPLY_COLUMNS], rows)
-        out += depth_lines(o, system)
+        out += fluid_sizing_heat_lines(o, system)
         out += ["", "Checks (failures and warnings first)"]
     problems = checks_lines(o, only_problems=quiet)
     out += problems
-    assumed = assumed_inputs(o.machine)
+    assumed = assumed_list(o.results, system)
     if assumed and not quiet:
         out += ["", "Assumed values (not given in the spec)"]
         out += [f"  {a['where']} = {a['value']:g}{' ' + a['unit'] if 'unit' in a else ''}: {a['basis']}" for a in assumed]

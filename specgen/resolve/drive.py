@@ -11,10 +11,10 @@ from dataclasses import dataclass, field
 
 from specgen.calc import sizing as sizing_calc
 from specgen.calc import variable
-from specgen.resolve.record import Record, eff
+from specgen.resolve.record import Record, motor_eff
 from specgen.results import DriveResult
 from specgen.intake.model import Drive, Sizing, Supply
-from specgen.trace import Input, Value, given
+from specgen.trace import Input, Value, given, indexed
 
 SRC_SIZING = "minimum displacement from the motor torque relation T = Vg*dp*eta_hm/(2*pi)"
 SRC_SERIES = "ISO 3 (preferred numbers)"
@@ -41,9 +41,11 @@ def setup_drive(drive: Drive, sup: Supply, motor_torques: dict[str, tuple[float,
     m = drive.motor
     rec = Record()
     per_duty = {}
-    proposed_size = None
+    proposed_size = proposed_from = None
     if m.target_pressure is not None:
         per_duty, proposed_size = _size(drive, rec, motor_torques, p_out, sizing)
+        if proposed_size is not None:
+            proposed_from = "stocked" if sizing.stock is not None else sizing.series
     if m.displacement_given:
         lo, hi, proposed = m.displacement_min, m.displacement_max, False
     else:
@@ -57,7 +59,7 @@ def setup_drive(drive: Drive, sup: Supply, motor_torques: dict[str, tuple[float,
         envelope = variable.torque_speed_envelope(
             lo, hi, q_avail, m.volumetric_efficiency.value, m.hydromechanical_efficiency.value, sup.relief_setting,
             p_out, m.rating.max_speed, points=ENVELOPE_POINTS)
-    return DriveSetup(DriveResult(drive.id, rec.values, envelope), lo, hi, proposed, q_avail, per_duty)
+    return DriveSetup(DriveResult(drive.id, rec.values, envelope, proposed_from), lo, hi, proposed, q_avail, per_duty)
 
 
 def _size(drive: Drive, rec: Record, motor_torques: dict, p_out: float, sizing: Sizing):
@@ -74,7 +76,7 @@ def _size(drive: Drive, rec: Record, motor_torques: dict, p_out: float, sizing: 
             sizing_calc.minimum_displacement(torque, m.target_pressure, p_out, eta_hm.value), "displacement",
             "Vg_min = 2*pi*T / ((p_target - p_out) * eta_hm)",
             "the displacement that gives this torque at the target pressure",
-            (Input("T", "motor torque", torque, "torque"), p_t, p_o, eff("eta_hm", "hydro-mechanical efficiency", eta_hm)),
+            (Input("T", "motor torque", torque, "torque"), p_t, p_o, motor_eff(drive.id, "hydromechanical", eta_hm)),
             SRC_SIZING)
     if not per_duty:
         return per_duty, None
@@ -82,7 +84,8 @@ def _size(drive: Drive, rec: Record, motor_torques: dict, p_out: float, sizing: 
     vg = rec.put(Value("minimum_displacement", "Smallest displacement for every duty point", "Vg_min",
                        per_duty[governing].value, "displacement", "Vg_min = max(Vg_min,i)",
                        "the largest of the duty points' minimum displacements",
-                       tuple(Input(f"Vg_min[{k}]", f"at {k}", v.value, "displacement") for k, v in per_duty.items()),
+                       tuple(Input(indexed("Vg_min", k), f"at {k}", v.value, "displacement")
+                             for k, v in per_duty.items()),
                        SRC_SIZING, note=f"governing duty point: {governing}"))
     vg_in = Input("Vg_min", "smallest displacement", vg, "displacement")
     if sizing.stock is not None:
@@ -114,7 +117,7 @@ def _variable(drive: Drive, sup: Supply, rec: Record, vg_min: float, q_pump: flo
                   "n_max = q_avail * eta_v / Vg_min",
                   "the available flow through the smallest displacement: the highest speed the motor can reach",
                   (Input("q_avail", "available flow", q, "flow"),
-                   eff("eta_v", "volumetric efficiency", m.volumetric_efficiency),
+                   motor_eff(drive.id, "volumetric", m.volumetric_efficiency),
                    Input("Vg_min", "minimum displacement", vg_min, "displacement")), SRC_FLOW,
                   note="over-centre: the same either side of zero" if m.over_centre else ""))
     return q

@@ -10,13 +10,13 @@ Pure: takes the model's SI floats, returns Results; no I/O, no pint.
 from __future__ import annotations
 
 from specgen.calc import gearing, loads, motor, variable
-from specgen.resolve.record import Record, eff
+from specgen.resolve.record import Record, eff, motor_eff
 from specgen.resolve.drive import DriveSetup, setup_drive
 from specgen.resolve.fluid import fluid_values
 from specgen.resolve.lines import line_values
 from specgen.resolve.load import load_values
 from specgen.resolve.supply import mode_heat, resolve_supply_mode, supply_base, supply_summary
-from specgen.results import DutyResult, Results
+from specgen.results import DutyResult, FluidResult, Results
 from specgen.intake.model import Drive, DutyPoint, Machine, Ratio, Supply
 from specgen.trace import Input, Value, given
 
@@ -45,7 +45,7 @@ def duty_mechanics(drive: Drive, duty: DutyPoint) -> Record:
     overrun = duty.direction == "overrunning"
     t_load, n_load = rec.get("load_torque"), rec.get("load_speed")
     i_in = Input("i", "gear ratio", ratio, "number")
-    g_in = eff("eta_g", "gear efficiency", eta_g)
+    g_in = eff("eta_g", "gear efficiency", eta_g, ("drives", drive.id, "gear_stage", "efficiency"))
     tl_in = Input("T_L", "load torque", t_load, "torque")
     nl_in = Input("n_L", "load speed", n_load, "speed")
     n_m = rec.put(Value("motor_speed", "Motor speed", "n", gearing.motor_speed(n_load, ratio), "speed",
@@ -110,20 +110,20 @@ def _displacement(rec: Record, drive: Drive, duty: DutyPoint, setup: DriveSetup,
                   "Vg = min(max(q_avail * eta_v / n, Vg_min), Vg_max)",
                   "the largest displacement that reaches the speed with the available flow (most torque per bar)",
                   (Input("q_avail", "available flow", setup.available_flow, "flow"),
-                   eff("eta_v", "volumetric efficiency", m.volumetric_efficiency), Input("n", "motor speed", n_m, "speed"),
+                   motor_eff(drive.id, "volumetric", m.volumetric_efficiency), Input("n", "motor speed", n_m, "speed"),
                    Input("Vg_min", "minimum displacement", setup.vg_min, "displacement"),
                    Input("Vg_max", "maximum displacement", setup.vg_max, "displacement")), SRC_CONTROL, note=note))
     if not s.reaches_speed:
         rec.put(Value("speed_reached", "Motor speed the available flow reaches", "n_reached", s.speed, "speed",
                       "n_reached = q_avail * eta_v / Vg_min", "available flow through the minimum displacement",
                       (Input("q_avail", "available flow", setup.available_flow, "flow"),
-                       eff("eta_v", "volumetric efficiency", m.volumetric_efficiency),
+                       motor_eff(drive.id, "volumetric", m.volumetric_efficiency),
                        Input("Vg_min", "minimum displacement", setup.vg_min, "displacement")), SRC_CONTROL))
     return s.displacement
 
 
 def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup: DriveSetup,
-                 fluid: dict) -> DutyResult:
+                 fluid: FluidResult) -> DutyResult:
     """Hydraulics of one duty point, after its mechanics and the drive's displacement are known."""
     m = drive.motor
     rec = Record()
@@ -138,17 +138,17 @@ def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup
     vg_in = Input("Vg", "motor displacement", vg, "displacement")
     t_in = Input("T", "motor torque", t_m, "torque")
     n_in = Input("n", "motor speed", n_m, "speed")
-    hm_in = eff("eta_hm", "hydro-mechanical efficiency", eta_hm)
-    v_in = eff("eta_v", "volumetric efficiency", eta_v)
+    hm_in = motor_eff(drive.id, "hydromechanical", eta_hm)
+    v_in = motor_eff(drive.id, "volumetric", eta_v)
     i_in = Input("i", "gear ratio", ratio, "number")
-    g_in = eff("eta_g", "gear efficiency", eta_g)
+    g_in = eff("eta_g", "gear efficiency", eta_g, ("drives", drive.id, "gear_stage", "efficiency"))
 
     q = rec.put(Value("flow_demand", "Flow demand", "q", motor.flow_for_speed(n_m, vg, eta_v.value), "flow",
                       "q = Vg * n / eta_v", "displacement times speed, plus leakage", (vg_in, n_in, v_in), SRC_MOTOR,
                       note="overrunning: flow the supply must give to keep the inlet filled" if overrun else ""))
     losses = {}
     if drive.lines is not None:
-        nu, rho = fluid["kinematic_viscosity"].value, fluid["density"].value
+        nu, rho = fluid["kinematic_viscosity"], fluid["density"]
         for kind, line in (("pressure", drive.lines.pressure), ("return", drive.lines.ret)):
             if line is not None:
                 for value in line_values(kind, line, q, nu, rho):
@@ -212,7 +212,7 @@ def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup
                   motor.torque(vg, dp_relief, eta_st.value), "torque",
                   "T_start = Vg * (p_relief - p_out) * eta_start / (2*pi)",
                   "torque from rest, with starting efficiency",
-                  (vg_in, relief_in, pout_in, eff("eta_start", "starting efficiency", eta_st)), SRC_MOTOR))
+                  (vg_in, relief_in, pout_in, motor_eff(drive.id, "starting", eta_st)), SRC_MOTOR))
     if duty.starting_torque is not None:
         ts_in = Input("T_L,start", "load starting torque", duty.starting_torque, "torque")
         rec.put(Value("starting_torque_motor", "Starting torque needed at motor", "T_need",

@@ -17,14 +17,12 @@ Pure: SI floats in, traced Values out.
 
 from __future__ import annotations
 
-import math
-
 from specgen.calc import heat, supply as pump
 from specgen.resolve.record import Record, eff
 from specgen.resolve.lines import line_values
-from specgen.results import Contribution, ModeResult, SupplyModeResult, SupplyResult
+from specgen.results import Contribution, FluidResult, ModeResult, SupplyModeResult, SupplyResult
 from specgen.intake.model import Machine, Supply
-from specgen.trace import Input, Value, given
+from specgen.trace import Input, Value, given, indexed
 
 SRC_PUMP = "positive-displacement pump relations (fluid-power textbook)"
 SRC_HEAT = "energy balance (first law) on the circuit: heat = power in - useful shaft power"
@@ -32,7 +30,7 @@ SRC_PARALLEL = "parallel circuit: flows add, the highest pressure demand sets th
 SRC_SERIES = "series circuit: one flow through every motor, pressure differentials add"
 
 
-def supply_base(sup: Supply, fluid: dict) -> dict[str, Value]:
+def supply_base(sup: Supply, fluid: FluidResult) -> dict[str, Value]:
     """Mode-independent values: prime mover and pump shaft speed, full delivery, suction line."""
     rec = Record()
     p = sup.pump
@@ -54,19 +52,19 @@ def supply_base(sup: Supply, fluid: dict) -> dict[str, Value]:
                       "q_p = Vp * n_p * eta_v,p", "pump displacement times shaft speed times volumetric efficiency",
                       (Input("Vp", "pump displacement", p.displacement, "displacement"),
                        Input("n_p", "pump shaft speed", n_p, "speed"),
-                       eff("eta_v,p", "pump volumetric efficiency", p.volumetric_efficiency)), SRC_PUMP))
-    if sup.suction_line is not None and "kinematic_viscosity" in fluid:
+                       eff("eta_v,p", "pump volumetric efficiency", p.volumetric_efficiency,
+                           ("supplies", sup.id, "pump", "volumetric_efficiency"))), SRC_PUMP))
+    if sup.suction_line is not None and "kinematic_viscosity" in fluid.values:
         # the pump draws its geometric flow; leakage returns inside it
         q_s = p.displacement * n_p if p.displacement is not None else rec.get("pump_delivery")
-        for value in line_values("suction", sup.suction_line, q_s, fluid["kinematic_viscosity"].value,
-                                 fluid["density"].value):
+        for value in line_values("suction", sup.suction_line, q_s, fluid["kinematic_viscosity"], fluid["density"]):
             rec.put(value)
     return rec.values
 
 
 def resolve_supply_mode(machine: Machine, sup: Supply, mode, duties: dict, base: dict) -> SupplyModeResult | None:
-    # The mode's own drives, in the mode's order (as the spine did): a walk over the whole machine
-    # for every mode and supply would make a large spec quadratic.
+    # The mode's own drives, in the mode's order: a walk over the whole machine for every mode and
+    # supply would make a large spec quadratic.
     running = [(d, u) for d, u in mode.running if machine.drive(d).supply == sup.id]
     if not running:
         return None
@@ -74,7 +72,7 @@ def resolve_supply_mode(machine: Machine, sup: Supply, mode, duties: dict, base:
         running.sort(key=lambda x: machine.drive_position(x[0]))
     contributions = tuple(Contribution(d, u, duties[(d, u)]["flow_demand"]) for d, u in running)
     rec = Record()
-    flows = tuple(Input(f"q[{c.drive}]", f"{c.drive} at {c.duty}", c.flow, "flow") for c in contributions)
+    flows = tuple(Input(indexed("q", c.drive), f"{c.drive} at {c.duty}", c.flow, "flow") for c in contributions)
     if sup.circuit == "series":
         demand = rec.put(Value("flow_demand", "Series line flow", "q_line", max(c.flow for c in contributions), "flow",
                                "q_line = max(q_i)", "the largest demand of the drives in series; a drive needing less "
@@ -89,7 +87,7 @@ def resolve_supply_mode(machine: Machine, sup: Supply, mode, duties: dict, base:
         p_work = rec.put(Value("working_pressure", "Supply working pressure", "p_s", max(x[2].value for x in needs),
                                "pressure", "p_s = max(p_supply,i)",
                                "the highest pressure a running drive needs at the supply (inlet plus pressure-line loss)",
-                               tuple(Input(f"p[{d}]", f"{d} at {u}", v.value, "pressure") for d, u, v in needs),
+                               tuple(Input(indexed("p", d), f"{d} at {u}", v.value, "pressure") for d, u, v in needs),
                                SRC_PARALLEL))
     q_pump = rec.put(base["pump_delivery"])
     rec.put(Value("flow_surplus", "Surplus (+) or shortfall (-)", "dq", q_pump - demand, "flow",
@@ -97,7 +95,7 @@ def resolve_supply_mode(machine: Machine, sup: Supply, mode, duties: dict, base:
                   (Input("q_p", "pump delivery", q_pump, "flow"), Input("q_sum", "flow demand", demand, "flow")), ""))
     _makeup(rec, running, duties, q_pump)
     _pump_and_heat(rec, sup, running, duties, q_pump, demand, p_work, base)
-    return SupplyModeResult(sup.id, mode.id, contributions, rec.values)
+    return SupplyModeResult(sup.id, mode.id, contributions, rec.values, rec.per_drive, tuple(rec.order))
 
 
 def _series_pressures(rec: Record, sup: Supply, running, duties) -> float:
@@ -110,17 +108,17 @@ def _series_pressures(rec: Record, sup: Supply, running, duties) -> float:
         dp = 0.0 if duties[(d, u)].direction == "overrunning" else r["pressure_differential"].value
         outlet = p + ret
         inlet = outlet + dp
-        rec.put(Value(f"outlet_pressure[{d}]", f"Outlet pressure of {d} in series", "p_out", outlet, "pressure",
+        rec.put(Value("outlet_pressure", f"Outlet pressure of {d} in series", "p_out", outlet, "pressure",
                       "p_out = p_next + dp_return_line", "the next drive's inlet (or the return) plus the line between",
                       (Input("p_next", "pressure downstream", p, "pressure"),
-                       Input("dp_return_line", "return-line loss", ret, "pressure")), SRC_SERIES))
-        rec.put(Value(f"inlet_pressure[{d}]", f"Inlet pressure of {d} in series", "p_in", inlet, "pressure",
+                       Input("dp_return_line", "return-line loss", ret, "pressure")), SRC_SERIES), drive=d)
+        rec.put(Value("inlet_pressure", f"Inlet pressure of {d} in series", "p_in", inlet, "pressure",
                       "p_in = p_out + dp", "outlet pressure plus the motor's differential",
                       (Input("p_out", "outlet pressure", outlet, "pressure"),
-                       Input("dp", "pressure differential", dp, "pressure")), SRC_SERIES))
+                       Input("dp", "pressure differential", dp, "pressure")), SRC_SERIES), drive=d)
         p = inlet + press
-        terms += [Input(f"dp[{d}]", f"{d} at {u}: differential", dp, "pressure"),
-                  Input(f"dp_lines[{d}]", f"{d}: line losses", ret + press, "pressure")]
+        terms += [Input(indexed("dp", d), f"{d} at {u}: differential", dp, "pressure"),
+                  Input(indexed("dp_lines", d), f"{d}: line losses", ret + press, "pressure")]
     return rec.put(Value("working_pressure", "Supply working pressure", "p_s", p, "pressure",
                          "p_s = p_return + sum(dp_i + dp_lines,i)",
                          "return pressure plus every differential and line loss in the series", tuple(terms),
@@ -134,11 +132,11 @@ def _makeup(rec: Record, running, duties, q_pump: float) -> None:
             continue
         others = [(od, ou) for od, ou in running if od != d]
         taken = sum(duties[k]["flow_demand"] for k in others)
-        rec.put(Value(f"makeup_available[{d}]", f"Flow left to fill {d}'s inlet", "q_makeup", q_pump - taken, "flow",
+        rec.put(Value("makeup_available", f"Flow left to fill {d}'s inlet", "q_makeup", q_pump - taken, "flow",
                       "q_makeup = q_p - sum(q_other)", "pump delivery less what the other running drives take",
                       (Input("q_p", "pump delivery", q_pump, "flow"),)
-                      + tuple(Input(f"q[{od}]", f"{od} at {ou}", duties[(od, ou)]["flow_demand"], "flow")
-                              for od, ou in others), "continuity of flow"))
+                      + tuple(Input(indexed("q", od), f"{od} at {ou}", duties[(od, ou)]["flow_demand"], "flow")
+                              for od, ou in others), "continuity of flow"), drive=d)
 
 
 def _pump_and_heat(rec: Record, sup: Supply, running, duties, q_pump, demand, p_work, base) -> None:
@@ -178,20 +176,21 @@ def _pump_and_heat(rec: Record, sup: Supply, running, duties, q_pump, demand, p_
         formula, words = "P_in = q_p * p_pump / eta_t", "full delivery at the pump outlet pressure, over overall efficiency"
         ins = (q_in, Input("p_pump", "pump outlet pressure", p_pump, "pressure"))
     p_in = rec.put(Value("pump_input_power", "Pump input power", "P_in", hb.pump_input, "power", formula, words,
-                         ins + (eff("eta_t", "pump overall efficiency", eta_t),), SRC_PUMP,
+                         ins + (eff("eta_t", "pump overall efficiency", eta_t,
+                                    ("supplies", sup.id, "pump", "overall_efficiency")),), SRC_PUMP,
                          note="surplus flow is taken as returned at the working pressure"
                          if not sup.compensated and sup.surplus_to == "working_pressure" else ""))
     pin_in = Input("P_in", "pump input power", p_in, "power")
     if "pump_shaft_speed" in base:
         n_p = base["pump_shaft_speed"].value
-        rec.put(Value("pump_input_torque", "Pump input torque", "T_p", p_in / (2 * math.pi * n_p), "torque",
+        rec.put(Value("pump_input_torque", "Pump input torque", "T_p", pump.input_torque(p_in, n_p), "torque",
                       "T_p = P_in / (2*pi*n_p)", "input power over the pump's angular speed",
                       (pin_in, Input("n_p", "pump shaft speed", n_p, "speed")), SRC_PUMP))
     if sup.prime_mover_power is not None:
         rec.put(given("prime_mover_power", "Prime mover power available", "P_pm", sup.prime_mover_power, "power"))
     if sup.prime_mover_speed is not None:
         rec.put(Value("prime_mover_torque", "Torque taken from the prime mover", "T_pm",
-                      p_in / (2 * math.pi * sup.prime_mover_speed), "torque", "T_pm = P_in / (2*pi*n_pm)",
+                      pump.input_torque(p_in, sup.prime_mover_speed), "torque", "T_pm = P_in / (2*pi*n_pm)",
                       "pump input power at the prime mover's speed (losses of a pump drive gearbox neglected)",
                       (pin_in, Input("n_pm", "prime mover speed", sup.prime_mover_speed, "speed")), SRC_PUMP))
     _heat(rec, hb, shaft, braking, share)
@@ -229,8 +228,9 @@ def mode_heat(mode, supply_modes) -> ModeResult | None:
     total = sum(r["heat_load"] for r in parts)
     value = Value("heat_load", "Heat load of the machine (cooling duty)", "Q_machine", total, "power",
                   "Q_machine = sum(Q_supply)", "every supply running in the mode returns to the one reservoir",
-                  tuple(Input(f"Q[{r.supply}]", f"supply {r.supply}", r["heat_load"], "power") for r in parts), SRC_HEAT)
-    return ModeResult(mode.id, {"heat_load": value})
+                  tuple(Input(indexed("Q", r.supply), f"supply {r.supply}", r["heat_load"], "power") for r in parts),
+                  SRC_HEAT)
+    return ModeResult(mode.id, {"heat_load": value}, {r.supply: r["heat_load"] for r in parts})
 
 
 def supply_summary(sup: Supply, base: dict, supply_modes) -> SupplyResult:
@@ -246,6 +246,6 @@ def supply_summary(sup: Supply, base: dict, supply_modes) -> SupplyResult:
         worst[key] = top.mode
         rec.put(Value(f"worst_{key}", label, "max", top[key], "power", f"max over modes of {key}",
                       f"the worst mode is {top.mode}",
-                      tuple(Input(f"[{r.mode}]", f"mode {r.mode}", r[key], "power") for r in mine), "",
+                      tuple(Input(indexed("", r.mode), f"mode {r.mode}", r[key], "power") for r in mine), "",
                       note=f"mode {top.mode}"))
     return SupplyResult(sup.id, rec.values, worst.get("pump_input_power"), worst.get("heat_load"))

@@ -11,7 +11,7 @@ Default warn margin for pressure: 10 % (specgen/intake/defaults.py).
 
 import pytest
 
-from helpers import limit_not_failed_yet, minimal, spec_check, spec_checks
+from helpers import minimal, spec_check, spec_checks
 
 
 def with_torque(torque: str, **motor_rating) -> dict:
@@ -118,7 +118,6 @@ def test_peak_pressure_boundaries(peak, status):
     assert c.value == pytest.approx(250e5) and c.limit == pytest.approx(float(peak.split()[0]) * 1e5)
 
 
-@limit_not_failed_yet()
 def test_peak_pressure_equal_to_relief_fails():
     assert spec_check(with_torque("286.5 N*m", peak_pressure="250 bar"), "peak_pressure").status == "fail"
 
@@ -162,7 +161,6 @@ def test_continuous_pressure_overrunning_uses_the_held_pressure(rating, status):
     assert c.value / 1e5 == pytest.approx(167.0119, abs=1e-3)
 
 
-@limit_not_failed_yet()
 def test_continuous_pressure_exactly_at_rating_fails():
     # no torque, back pressure 205 bar: p_in = 205 bar exactly, the rating
     d = with_torque("0 N*m", continuous_pressure="205 bar")
@@ -191,7 +189,6 @@ def test_outlet_pressure_per_duty_point_takes_the_drive_back_pressure():
     assert c.status == "fail" and c.value == pytest.approx(12e5)
 
 
-@limit_not_failed_yet()
 def test_outlet_pressure_exactly_at_rating_fails():
     c = spec_check(with_torque("286.5 N*m", max_outlet_pressure="5 bar"), "outlet_pressure", drive="hoist",
                    duty="lift", mode=None)
@@ -237,7 +234,6 @@ def test_case_pressure_boundaries(p_case, status):
     assert (c.value, c.limit) == (pytest.approx(float(p_case.split()[0]) * 1e5), pytest.approx(3e5))
 
 
-@limit_not_failed_yet()
 def test_case_pressure_exactly_at_rating_fails():
     assert spec_check(case("3 bar", "3 bar"), "case_pressure", drive="hoist").status == "fail"
 

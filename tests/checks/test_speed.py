@@ -9,7 +9,7 @@ fluid-power textbook).
 
 import pytest
 
-from helpers import limit_not_failed_yet, minimal, spec_check, spec_checks
+from helpers import minimal, spec_check, spec_checks
 
 
 def at_speed(speed: str, **rating) -> dict:
@@ -43,7 +43,6 @@ def test_max_speed_with_gear_stage_checks_the_motor_side():
     assert c.status == "warn" and c.value == pytest.approx(2860 / 60)
 
 
-@limit_not_failed_yet()
 def test_max_speed_exactly_at_rating_fails():
     assert spec_check(at_speed("3000 rpm"), "max_speed", drive="hoist", duty="lift").status == "fail"
 

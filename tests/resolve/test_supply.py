@@ -42,8 +42,9 @@ def test_series_circuit_pressure_differentials_add():
     dp_b = 2 * math.pi * 100 / (80e-6 * 0.9)  # 87.3 bar
     assert a["pressure_differential"] == pytest.approx(dp_a) and b["pressure_differential"] == pytest.approx(dp_b)
     # spec order hoist -> feed: feed's outlet is the return (5 bar), its inlet is hoist's outlet
-    assert s["outlet_pressure[feed]"] == pytest.approx(5e5)
-    assert s["outlet_pressure[hoist]"] == pytest.approx(5e5 + dp_b)
+    assert s.per_drive["feed"]["outlet_pressure"].value == pytest.approx(5e5)
+    assert s.per_drive["hoist"]["outlet_pressure"].value == pytest.approx(5e5 + dp_b)
+    assert s.per_drive["hoist"]["inlet_pressure"].value == pytest.approx(5e5 + dp_b + dp_a)
     assert s["working_pressure"] == pytest.approx(5e5 + dp_a + dp_b)  # 197.0 bar
     # one flow through both: the larger demand, 80*600/0.95 = 50.5 vs 100*500/0.95 = 52.6 L/min
     assert s["flow_demand"] == pytest.approx(max(a["flow_demand"], b["flow_demand"]))

@@ -1,0 +1,72 @@
+"""Flow and power checks: pump delivery against the flow demand, pump input power against the
+prime mover, and the makeup flow an overrunning motor's inlet needs.
+
+Margins as defined in checks/status.py.
+"""
+
+from __future__ import annotations
+
+from typing import TYPE_CHECKING, Iterator
+
+from specgen.checks.status import Check, Fmt, below, reaches, status
+from specgen.intake.model import Machine
+
+if TYPE_CHECKING:
+    from specgen.results import Results
+
+HOLDING_VALVES = ("counterbalance_valve", "brake_valve", "counterbalance_valve_and_brake")
+
+
+def pump_flow(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]:
+    """Pump delivery against the summed flow demand of every mode."""
+    warn = machine.thresholds.flow_margin_warn.value
+    for r in results.supply_modes:
+        q_p, q = r["pump_delivery"], r["flow_demand"]
+        margin = below(q, q_p)
+        st = status(margin, warn)
+        yield Check("pump_flow", "Pump delivery covers flow demand", st, q, q_p, "flow",
+                    f"Drives need {fmt(q, 'flow')} of the pump's {fmt(q_p, 'flow')}"
+                    + {"fail": ": the drives will run slower than specified.",
+                       "warn": f": under {warn:.0%} surplus.", "pass": "."}[st],
+                    supply=r.supply, mode=r.mode, margin=margin)
+
+
+def prime_mover_power(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]:
+    """Pump input power in every mode against the prime mover's power."""
+    warn = machine.thresholds.power_margin_warn.value
+    for r in results.supply_modes:
+        if "prime_mover_power" not in r.values:
+            continue
+        need, have = r["pump_input_power"], r["prime_mover_power"]
+        margin = below(need, have)
+        st = status(margin, warn)
+        yield Check("prime_mover_power", "Prime mover power covers pump input", st, need, have, "power",
+                    f"Pump takes {fmt(need, 'power')} of the prime mover's {fmt(have, 'power')}"
+                    + {"fail": ": the engine or electric motor will stall or trip.",
+                       "warn": f": under {warn:.0%} in hand.", "pass": "."}[st],
+                    supply=r.supply, mode=r.mode, margin=margin)
+
+
+def makeup_flow(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]:
+    """An overrunning motor's inlet must be kept filled by the flow the other drives leave. Short:
+    fail (cavitation, the load can run away), or warn where a counterbalance or brake valve is
+    declared (it closes as its pilot pressure falls: lowering slows and may judder)."""
+    warn = machine.thresholds.flow_margin_warn.value
+    for r in results.supply_modes:
+        for c in r.contributions:
+            left = r.drive_value(c.drive, "makeup_available")
+            if left is None:
+                continue
+            have, need = left.value, c.flow
+            margin = reaches(have, need)
+            valve = machine.drive(c.drive).load_holding in HOLDING_VALVES
+            st = status(margin, warn, worst="warn" if valve else "fail")
+            tail = {"fail": ": the motor draws more than reaches its inlet and cavitates; the load can run away. "
+                            "Add makeup flow (anti-cavitation valve, boost) or a counterbalance valve.",
+                    "warn": (": short, the counterbalance valve will throttle the load down and it may judder."
+                             if margin <= 0 else f": under {warn:.0%} in hand."),
+                    "pass": "."}[st]
+            yield Check("makeup_flow", "Makeup flow for overrunning load", st, have, need, "flow",
+                        f"The overrunning motor needs {fmt(need, 'flow')} at its inlet; the other drives leave "
+                        f"{fmt(have, 'flow')}{tail}", drive=c.drive, duty=c.duty, supply=r.supply, mode=r.mode,
+                        margin=margin)

@@ -1,0 +1,120 @@
+"""The verdict record, the one status rule every check uses, and the one order of severity.
+
+Margin: how far a compared quantity is from its limit, as a fraction of a stated reference, signed
+so that a negative margin means the limit is crossed.
+
+    margin = (limit - value) / reference    for a value that must stay below its limit
+    margin = (value - limit) / reference    for a value that must reach its limit
+
+Status rule (``status``): "fail" at or past the limit (margin <= 0), "warn" inside the warning
+band (0 < margin < band), else "pass". A rating is pass/fail only: band 0. A check whose worst
+verdict is a warning caps the rule there (``worst="warn"``). Where there is nothing to measure
+(a rating or a setting not given, no stocked size) the margin is None and the status is the
+check's worst.
+
+Each check's margin, and what it is a fraction of:
+
+    pressure_margin         (relief - required inlet pressure [+ pressure-line loss]) / relief
+                            (a compensated pump: its compensator setting)
+    supply_pressure         (relief or compensator setting - supply working pressure) / that setting
+    peak_pressure           (peak rating - relief setting) / peak rating
+    continuous_pressure     (continuous rating - inlet or held outlet pressure) / continuous rating
+    outlet_pressure         (allowed outlet pressure - back or series outlet pressure) / allowed outlet pressure
+    case_pressure           (case rating - case pressure) / case rating
+    max_speed               (maximum speed - motor speed) / maximum speed
+    min_speed               (motor speed - smooth-running minimum) / minimum; worst status: warn
+    min_displacement_speed  (maximum speed - speed at the minimum displacement) / maximum speed
+    pump_flow               (pump delivery - flow demand) / pump delivery
+    prime_mover_power       (prime mover power - pump input power) / prime mover power
+    makeup_flow             (flow left for the inlet - overrunning motor's flow) / that motor's flow;
+                            worst status warn where a counterbalance or brake valve is declared
+    line_velocity           pressure and return lines: (failing velocity - velocity) / failing velocity,
+                            the failing velocity being 1.5 times the rule-of-thumb upper limit, so the
+                            warning band 1/3 starts at the upper limit; suction lines: (upper limit -
+                            velocity) / upper limit, worst status warn
+    heat_load               (cooler capacity - heat load) / cooler capacity
+    displacement_choice     (displacement used or proposed - smallest for the target pressure) / that smallest;
+                            a variable motor's duty speed: (speed reached - speed needed) / speed needed
+    breakaway               (breakaway torque at relief - starting torque needed) / torque needed
+    load_holding            None: a declaration, not a number (pass when a way to hold the load is declared)
+
+Worked example: relief 250 bar, inlet needs 260 bar: margin (250 - 260)/250 = -0.04, fail.
+Motor at 3300 rpm against a 3000 rpm maximum: (3000 - 3300)/3000 = -0.10, fail.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Callable
+
+SEVERITY = ("pass", "warn", "fail")  # least to most severe
+RANK = {s: n for n, s in enumerate(SEVERITY)}
+
+
+def most_severe(statuses) -> str:
+    """The most severe of ``statuses`` ("pass" when there are none)."""
+    return max(statuses, key=RANK.__getitem__, default="pass")
+
+
+def status(margin: float | None, band: float = 0.0, worst: str = "fail") -> str:
+    """"fail" at or past the limit, "warn" inside the warning band, else "pass"; never beyond ``worst``.
+
+    ``margin``: signed fraction (negative: limit crossed); None when there is nothing to measure,
+    which gives ``worst``. ``band``: the warning band as a fraction (0 for a rating).
+    Example: status(0.05, 0.10) == "warn"; status(0.0, 0.10) == "fail"; status(-0.2, worst="warn") == "warn".
+    """
+    if margin is None:
+        found = worst
+    else:
+        found = "fail" if margin <= 0 else "warn" if margin < band else "pass"
+    return found if RANK[found] <= RANK[worst] else worst
+
+
+def below(value: float, limit: float) -> float:
+    """Margin of a value that must stay below ``limit``, as a fraction of the limit."""
+    return (limit - value) / limit
+
+
+def reaches(value: float, need: float) -> float:
+    """Margin of a value that must reach ``need``, as a fraction of the need (infinite for a zero need)."""
+    return (value - need) / need if need > 0 else float("inf")
+
+
+@dataclass(frozen=True)
+class Check:
+    """One verdict. ``value`` and ``limit`` are SI floats of ``kind`` (None where not numeric);
+    ``margin`` is the signed fraction the module docstring defines for the check's id."""
+
+    id: str
+    title: str
+    status: str  # "pass", "warn" or "fail"
+    value: float | None
+    limit: float | None
+    kind: str
+    message: str
+    drive: str | None = None
+    duty: str | None = None
+    supply: str | None = None
+    mode: str | None = None
+    margin: float | None = None
+
+    @property
+    def where(self) -> str:
+        parts = [f"{k} {v}" for k, v in (("drive", self.drive), ("duty point", self.duty),
+                                          ("supply", self.supply), ("mode", self.mode)) if v]
+        return ", ".join(parts)
+
+
+Fmt = Callable[[float, str], str]  # (SI value, units kind) -> text in the machine's display units
+
+
+def missing(check_id: str, title: str, what: str, drive: str) -> Check:
+    """A rating the check needs is not given: a warning with no margin."""
+    return Check(check_id, title, status(None, worst="warn"), None, None, "",
+                 f"No {what} rating given; enter the motor maker's figure.", drive=drive)
+
+
+def against(value: float, limit: float, ok: bool, words: tuple[str, str] = ("within", "above")) -> str:
+    """How a value stands to its limit in a message: ``words[0]`` when the check passes, "at" on the
+    limit itself, else ``words[1]``."""
+    return words[0] if ok else "at" if value == limit else words[1]
