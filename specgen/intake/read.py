@@ -4,11 +4,24 @@ Only plain YAML data is built (SafeLoader): no tag can construct a Python object
 value count (also after alias expansion) and nesting are bounded by MAX_BYTES, MAX_NODES and
 MAX_DEPTH, checked while reading, so a hostile file is refused before it costs time or memory.
 Every message is one printable line: text quoted from the spec has its control characters escaped.
+
+Plain (unquoted) values are read by the YAML 1.2 core rules, not PyYAML's YAML 1.1 ones, so no
+value turns into a number the writer did not write: ``true``/``false`` are booleans; ``12``,
+``-3``, ``0.92``, ``2.5e3`` are numbers; everything else is text. YAML 1.1 would read ``1:4`` as
+the base-60 number 64, ``017`` as octal 15 (YAML 1.2 as 17), ``0x1F`` as 31, ``1_000`` as 1000, ``yes``/``on`` as
+true and ``2025-03-14`` as a date: here they stay text, so a field that needs a number refuses
+them with its located message (a quantity field names the mistake: "write a ratio as a number,
+e.g. 0.25 or 4"). ``.inf`` and ``.nan`` stay text too, so no value is infinite or not a number. A
+number too large for a float (``1e400``, an integer of hundreds of digits) is refused where it
+is written. Explicit tags for anything but plain text, numbers, booleans, null, mappings and
+lists (``!!binary``, ``!!set``, ``!!timestamp``, ``!!python/...``) are refused.
 """
 
 from __future__ import annotations
 
+import math
 import os
+import re
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -145,6 +158,51 @@ class _Loader(_reader_base()):
         result.start = _pos(node.start_mark)
         return result
 
+
+# YAML 1.2 core scalars only (see the module text). A resolver is tried by a value's first
+# character; the first pattern that matches the whole value gives its type, else it is text.
+_BOOL = re.compile(r"^(?:true|True|TRUE|false|False|FALSE)$")
+_INT = re.compile(r"^[-+]?(?:0|[1-9][0-9]*)$")  # "017" stays text: YAML 1.1 read it as octal 15
+_FLOAT = re.compile(r"^[-+]?(?:\.[0-9]+|[0-9]+\.[0-9]*|[0-9]+(?=[eE]))(?:[eE][-+]?[0-9]+)?$")
+_MAX_DIGITS = 300  # a float holds up to about 1.8e308; Python refuses ints of over 4300 digits
+_TAGS = {"bool": "tag:yaml.org,2002:bool", "int": "tag:yaml.org,2002:int", "float": "tag:yaml.org,2002:float"}
+_ALLOWED_TAGS = {"tag:yaml.org,2002:" + t for t in ("str", "int", "float", "bool", "null", "map", "seq")}
+
+_Loader.yaml_implicit_resolvers = {
+    first: [(tag, rx) for tag, rx in resolvers if tag in ("tag:yaml.org,2002:null", "tag:yaml.org,2002:merge")]
+    for first, resolvers in _Loader.yaml_implicit_resolvers.items()
+}
+_Loader.add_implicit_resolver(_TAGS["bool"], _BOOL, list("tTfF"))
+_Loader.add_implicit_resolver(_TAGS["int"], _INT, list("-+0123456789"))
+_Loader.add_implicit_resolver(_TAGS["float"], _FLOAT, list("-+.0123456789"))
+_Loader.yaml_constructors = {tag: f for tag, f in _Loader.yaml_constructors.items()
+                             if tag is None or tag in _ALLOWED_TAGS}
+
+
+def _construct_number(loader, node):
+    """An int or finite float written in decimal; anything else (also under an explicit !!int or
+    !!float tag: 0x1F, 1_000, .nan) is refused where it stands."""
+    text = loader.construct_scalar(node)
+    if not (_INT.match(text) or node.tag == _TAGS["float"] and _FLOAT.match(text)):
+        raise _LoadProblem(node.start_mark, f"'{one_line(text[:40])}' is not a decimal number such as 12 or 0.92")
+    if sum(c.isdigit() for c in text) > _MAX_DIGITS:
+        raise _LoadProblem(node.start_mark, f"a number of more than {_MAX_DIGITS} digits is too large to compute with")
+    value = int(text) if node.tag == _TAGS["int"] else float(text)
+    if isinstance(value, float) and not math.isfinite(value) or isinstance(value, int) and abs(value) > 1e300:
+        raise _LoadProblem(node.start_mark, f"{text} is too large a number to compute with")
+    return value
+
+
+def _construct_bool(loader, node):
+    text = loader.construct_scalar(node)
+    if not _BOOL.match(text):
+        raise _LoadProblem(node.start_mark, f"'{one_line(text[:40])}' is not a boolean; write true or false")
+    return text.lower() == "true"
+
+
+_Loader.add_constructor(_TAGS["int"], _construct_number)
+_Loader.add_constructor(_TAGS["float"], _construct_number)
+_Loader.add_constructor(_TAGS["bool"], _construct_bool)
 
 # Build mappings and sequences eagerly through the overrides above so every one carries marks.
 _Loader.add_constructor("tag:yaml.org,2002:map", lambda loader, node: loader.construct_mapping(node))
