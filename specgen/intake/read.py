@@ -22,6 +22,7 @@ from __future__ import annotations
 import math
 import os
 import re
+import stat
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -315,23 +316,44 @@ def _too_big(size: int) -> str:
     return f"file is {size} bytes; specs are limited to {MAX_BYTES} bytes ({MAX_BYTES // 1024} KiB)"
 
 
-def load_file(path: str | Path) -> Source:
-    """Read and parse one spec file; never reads more than MAX_BYTES + 1 bytes of it."""
+def load_file(path: str | Path, inside: str | Path | None = None) -> Source:
+    """Read and parse one spec file; never reads more than MAX_BYTES + 1 bytes of it.
+
+    Only a regular file is read: a folder, FIFO (which would block), device (/dev/zero never
+    ends) or socket is refused, also behind a symbolic link, by the type of what was opened, so
+    nothing can be swapped in between a test and the read. ``inside``: a folder the file's real
+    path (links followed) must lie in, for files that sit beside a spec (its review record).
+    """
     p = Path(path)
     name = str(path)
     where = Location(name)
-    if p.is_dir():
-        raise SpecError([problem(where, "", "is a folder, not a spec file")])
-    if p.exists() and not p.is_file():  # a FIFO or device would block or never end
-        raise SpecError([problem(where, "", "is not a regular file")])
+    if inside is not None:
+        base = os.path.realpath(inside)
+        real = os.path.realpath(p)
+        if os.path.commonpath([base, real]) != base:
+            raise SpecError([problem(where, "", f"resolves to {real}, outside the folder {base}; "
+                                                "a file beside a spec must lie in the spec's folder tree")])
     try:
-        with p.open("rb") as fh:
+        fd = os.open(p, os.O_RDONLY | getattr(os, "O_NONBLOCK", 0) | getattr(os, "O_NOCTTY", 0))
+    except FileNotFoundError:
+        raise SpecError([problem(where, "", "no such file")]) from None
+    except IsADirectoryError:
+        raise SpecError([problem(where, "", "is a folder, not a spec file")]) from None
+    except OSError as exc:
+        raise SpecError([problem(where, "", f"cannot read: {exc.strerror or exc}")]) from None
+    try:
+        mode = os.fstat(fd).st_mode
+        if stat.S_ISDIR(mode):
+            raise SpecError([problem(where, "", "is a folder, not a spec file")])
+        if not stat.S_ISREG(mode):  # a FIFO or device would block or never end
+            raise SpecError([problem(where, "", "is not a regular file")])
+        with os.fdopen(os.dup(fd), "rb") as fh:
             raw = fh.read(MAX_BYTES + 1)
             if len(raw) > MAX_BYTES:
                 size = os.fstat(fh.fileno()).st_size
                 raise SpecError([problem(where, "", _too_big(max(size, len(raw))))])
-    except FileNotFoundError:
-        raise SpecError([problem(where, "", "no such file")]) from None
     except OSError as exc:
         raise SpecError([problem(where, "", f"cannot read: {exc.strerror or exc}")]) from None
+    finally:
+        os.close(fd)
     return load_text(raw, name)
