@@ -138,15 +138,16 @@ def is_specgen_page(path: str | Path) -> bool:
 
 
 def refuse_foreign_files(folder: str | Path, relative: list[str | Path]) -> None:
-    """Raise SpecError unless every file of ``relative`` that exists under ``folder`` may be replaced:
-    each must sit beside (or be) an ``index.html`` that specgen wrote."""
+    """Raise SpecError unless every file of ``relative`` under ``folder`` may be replaced: an
+    existing ``index.html`` must be a specgen page, and so must an ``index.html`` beside any other
+    existing file (a report.pdf in a folder of someone else's site stays theirs)."""
     folder = Path(folder)
     for rel in relative:
         existing = folder / rel
-        if not os.path.lexists(existing):
-            continue
         page = existing.parent / REPORT_PAGE
-        if not is_specgen_page(page):
-            raise SpecError([Problem(Location(str(existing)), "", (
-                f"exists and {page} was not written by specgen; specgen replaces only its own report: "
-                "choose an empty or earlier report folder"))])
+        if not os.path.lexists(existing) or not os.path.lexists(page) or is_specgen_page(page):
+            continue
+        what = "was not written by specgen" if existing == page else f"sits beside {page}, which specgen did not write"
+        raise SpecError([Problem(Location(str(existing)), "", (
+            f"{what} (no specgen generator tag); specgen replaces only its own report: choose an empty "
+            "folder or an earlier report's"))])
