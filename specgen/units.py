@@ -14,7 +14,10 @@ text is ever evaluated as arithmetic)::
     joiner   := *  |  /  |  ·  |  spaces
     term     := name [power]               name: letters, _, µ, ° (no digits); not a bare
                                            number such as pi
-    power    := (^ | **) [-] digit         a small whole power 1 to 9, e.g. cm^3, m/s^2, s^-1
+    power    := (^ | **) [-] digit         a small whole power 1 to 9, e.g. cm^3, m/s^2, s^-1,
+              | [⁻] superscript digit      or as a data sheet prints it: cm³, s⁻¹
+    spaces   := space, tab, no-break space (U+00A0, U+202F) or thin space (U+2009); a line
+                break only at either end (a block scalar's)
 
 Examples that pass: "250 bar", "9.5 mm", "-3e2 Pa", "160 cm^3/rev", "1.8 kN*m", "45 L/min",
 "1200 lbf*in", "92 %", "4.5 kg*m^2". Refused, with a hint: "9,5 mm" (the decimal mark is a
@@ -140,14 +143,17 @@ def _describe_dimension(q) -> str:
 
 # The grammar in the module text, as regular expressions on ASCII digits and spaces only
 # (Python's \d and \s would also take Arabic-Indic digits and line separators).
-_SP = "[ \t]"
+_SP = "[ \t\u00a0\u2009\u202f]"  # a space, a tab, and the no-break and thin spaces pasted from data sheets
 _NUMBER = r"[-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][-+]?[0-9]+)?"
 _NAME = "[A-Za-z\u00b5\u03bc\u00b0][A-Za-z_\u00b5\u03bc\u00b0]*"
-_TERM = f"{_NAME}(?:{_SP}*(?:\\^|\\*\\*){_SP}*-?[1-9](?![0-9]))?"
+_SUPERSCRIPT = "\u207b?[\u00b9\u00b2\u00b3\u2074-\u2079]"  # cm³, s⁻¹ as a data sheet prints them
+_TERM = f"{_NAME}(?:{_SP}*(?:\\^|\\*\\*){_SP}*-?[1-9](?![0-9])|{_SUPERSCRIPT}(?![\u00b9\u00b2\u00b3\u2070-\u2079]))?"
 _UNIT = f"%|{_TERM}(?:(?:{_SP}*[*/\u00b7]{_SP}*|{_SP}+){_TERM})*"
-_ENDS = "[ \t\r\n]*"  # a quoted or block scalar may carry a line break at either end
+_ENDS = "[ \t\r\n\u00a0\u2009\u202f]*"  # a quoted or block scalar may carry a line break at either end
 _QUANTITY = re.compile(f"{_ENDS}({_NUMBER}){_SP}*({_UNIT})?{_ENDS}")
-_UNIT_CHARACTER = re.compile(f"[A-Za-z_\u00b5\u03bc\u00b0%*/\u00b7^0-9 \t\r\n]")
+_UNIT_CHARACTER = re.compile(f"[A-Za-z_\u00b5\u03bc\u00b0%*/\u00b7^0-9 \t\r\n\u00a0\u2009\u202f\u00b9\u00b2\u00b3\u2070-\u2079\u207b]")
+_PLAIN_POWER = str.maketrans("\u207b\u00b9\u00b2\u00b3\u2074\u2075\u2076\u2077\u2078\u2079\u00a0\u2009\u202f",
+                             "-123456789   ")
 _NAMES = re.compile(_NAME)
 _NOT_FINITE = re.compile(f"{_SP}*[-+]?(?:nan|inf(?:inity)?)(?![A-Za-z])", re.IGNORECASE)
 _DECIMAL_COMMA = re.compile(f"{_SP}*([-+]?[0-9]+),([0-9]+)")
@@ -190,7 +196,7 @@ def grammar_problem(text: str, kind_name: str = "") -> str | None:
     op = _OPERATOR.search(rest)
     if op:
         return f"'{text}' holds arithmetic or a sign ('{op.group()}') after the number; {one}"
-    if re.search(r"(?:\^|\*\*)", rest):
+    if re.search("(?:\\^|\\*\\*|[\u00b9\u00b2\u00b3\u2070-\u2079])", rest):
         return (f"'{text}' uses a power specgen does not read; put a small whole power straight on a unit, "
                 "e.g. 'cm^3' or 'm/s^2'")
     if re.search("[0-9]", rest):
@@ -209,7 +215,7 @@ def _split(text: str, kind: Kind) -> tuple[float, str]:
     m = _QUANTITY.fullmatch(text)
     value = float(m.group(1))  # a string of any length: float() gives inf, never an exception
     _finite(value, text)
-    unit = m.group(2) or ""
+    unit = re.sub(f"({_SUPERSCRIPT})", r"^\1", m.group(2) or "").translate(_PLAIN_POWER)  # pint's spelling
     for name in _NAMES.findall(unit):
         if _is_plain_number(name):
             raise UnitProblem(f"'{text}': '{name}' is a number, not a unit; {_one(kind)}")

@@ -18,8 +18,10 @@ from specgen import units
 
 _NUM = r"[+-]?([0-9]+(\.[0-9]*)?|\.[0-9]+)([eE][+-]?[0-9]+)?"
 _NAME = "[A-Za-z\u00b5\u03bc\u00b0][A-Za-z_\u00b5\u03bc\u00b0]*"
-_TERM = rf"{_NAME}([ \t]*(\^|\*\*)[ \t]*-?[1-9])?"
-ORACLE = re.compile(rf"[ \t\r\n]*{_NUM}[ \t]*(%|{_TERM}(([ \t]*[*/\u00b7][ \t]*|[ \t]+){_TERM})*)?[ \t\r\n]*")
+_S = "[ \t\u00a0\u2009\u202f]"
+_TERM = rf"{_NAME}({_S}*(\^|\*\*){_S}*-?[1-9]|\u207b?[\u00b9\u00b2\u00b3\u2074-\u2079])?"
+_END = "[ \t\r\n\u00a0\u2009\u202f]*"
+ORACLE = re.compile(rf"{_END}{_NUM}{_S}*(%|{_TERM}(({_S}*[*/\u00b7]{_S}*|{_S}+){_TERM})*)?{_END}")
 
 
 def grammatical(text: str) -> bool:
@@ -28,7 +30,8 @@ def grammatical(text: str) -> bool:
 
 KNOWN = {"pressure": ["bar", "psi", "MPa", "kPa"], "length": ["mm", "m", "in"], "torque": ["N*m", "kN·m", "lbf*in"],
          "displacement": ["cm^3", "cm^3/rev", "in**3", "cm ^ 3 / rev"], "flow": ["L/min", "gpm", "m^3/s"],
-         "speed": ["rpm", "rev/min", "rev/s", "rad/s"], "ratio": ["%"], "acceleration": ["m/s^2", "m s^-2"]}
+         "speed": ["rpm", "rev/min", "rev/s", "rad/s"], "ratio": ["%"],
+         "acceleration": ["m/s^2", "m s^-2", "m/s\u00b2", "m\u00a0s\u207b\u00b2"]}
 
 numbers = st.builds(
     lambda sign, whole, frac, exp: f"{sign}{whole}{frac}{exp}",
@@ -45,7 +48,8 @@ def test_grammatical_text_of_known_units_is_accepted(number, kind, data, space):
 
 
 PIECES = ["1", "25", "0.5", ".5", "9,5", "1:4", "e3", "E-2", " ", "bar", "mm", "kN", "m", "pi", "%", "*", "/",
-          "^2", "**2", "^", "+", "-", "(", ")", "2", "·", ",", ":", "\n", "\u00a0", "\u0663", "inf", "nan", "x"]
+          "^2", "**2", "^", "+", "-", "(", ")", "2", "·", ",", ":", "\n", "\u00a0", "\u0663", "inf", "nan", "x",
+          "\u00b3", "\u207b", "\u00b9", "\u2070", "\u200b", "\u2028"]
 
 
 @given(st.lists(st.sampled_from(PIECES), min_size=1, max_size=7).map("".join))
@@ -87,7 +91,9 @@ def test_any_text_outside_the_grammar_is_refused(text):
     ("500 bar%", "pressure", "'%' stands only alone as the whole unit"),
     ("250 bar^2^2", "pressure", "uses a power specgen does not read"),
     ("250 bar**2.5", "pressure", "uses a power specgen does not read"),
-    ("250\u00a0bar", "pressure", "U+00A0"),
+    ("250 bar\u200b", "pressure", "U+200B"),
+    ("250 bar\u2028", "pressure", "U+2028"),
+    ("5 cm\u00b3\u00b3", "displacement", "uses a power specgen does not read"),
     ("\u0663 bar", "pressure", "does not start with a number"),
     ("nan bar", "pressure", "is not a finite number"),
     ("1e400 bar", "pressure", "is not a finite number"),
@@ -107,6 +113,8 @@ def test_common_mistakes_are_named(text, kind, words):
     ("92%", "ratio", 0.92),
     ("5 m s^-2", "acceleration", 5.0),
     ("2 kN·m", "torque", 2000.0),
+    ("160 cm\u00b3", "displacement", 160e-6),  # as a data sheet prints it
+    ("250\u00a0bar", "pressure", 250e5),  # a no-break space pasted from a document
 ])
 def test_forms_in_use_stay_accepted(text, kind, si):
     assert units.parse(text, kind) == pytest.approx(si)
