@@ -216,10 +216,10 @@ def render_text(d: Diff) -> str:
 
 
 # Markdown a cell must not render from spec text: emphasis and strikethrough (* _ ~), code (`),
-# links and images ([ ] ( ) !), math ($), table pipes (|), HTML and autolinks (< &), and, on the
+# links and images ([ ]), math ($), table pipes (|), HTML and autolinks (< &), and, on the
 # site that shows the comment, @mentions, #123 references and bare URLs (a zero-width space, as an
 # entity, splits them without changing what a reader sees).
-_MD_ESCAPED = "\\`*_~[]()!$|"
+_MD_ESCAPED = "\\`*_~[]$|"  # ( ) and ! form nothing once [ and ] are escaped
 _ZWSP = "&#8203;"
 
 
