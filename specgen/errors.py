@@ -15,7 +15,7 @@ from dataclasses import dataclass
 from specgen.safe_text import ECHO_LIMIT, LINE_LIMIT, clip, escape
 
 PATH_LIMIT = 200
-_QUOTED = re.compile(r"'([^']*)'")
+_QUOTED = re.compile(r"(?<![A-Za-z])'([^']*)'(?![A-Za-z])")  # an apostrophe (spec's) opens no echo
 
 
 def bounded(message: str) -> str:

@@ -112,3 +112,9 @@ def test_markdown_diff_of_a_hostile_title_stays_text(tmp_path):
     assert code in (0, 1), err
     title = out.splitlines()[0]
     assert "<b>" not in title and "![" not in title and "@someone" not in title and "#1" not in title
+
+
+def test_an_apostrophe_in_a_sentence_does_not_cut_it():
+    words = "the spec's folder " + "y" * 120 + " and 'z'"
+    text = str(Problem(Location("s.yaml"), "", f"'{'x' * 100}' resolves to {words}"))
+    assert words in text and "(100 characters)" in text
