@@ -7,14 +7,14 @@ Every message is one printable line: text quoted from the spec has its control c
 
 Plain (unquoted) values are read by the YAML 1.2 core rules, not PyYAML's YAML 1.1 ones, so no
 value turns into a number the writer did not write: ``true``/``false`` are booleans; ``12``,
-``-3``, ``0.92``, ``2.5e3`` are numbers; everything else is text. YAML 1.1 would read ``1:4`` as
-the base-60 number 64, ``017`` as octal 15 (YAML 1.2 as 17), ``0x1F`` as 31, ``1_000`` as 1000, ``yes``/``on`` as
-true and ``2025-03-14`` as a date: here they stay text, so a field that needs a number refuses
-them with its located message (a quantity field names the mistake: "write a ratio as a number,
-e.g. 0.25 or 4"). ``.inf`` and ``.nan`` stay text too, so no value is infinite or not a number. A
-number too large for a float (``1e400``, an integer of hundreds of digits) is refused where it
-is written. Explicit tags for anything but plain text, numbers, booleans, null, mappings and
-lists (``!!binary``, ``!!set``, ``!!timestamp``, ``!!python/...``) are refused.
+``-3``, ``0.92``, ``2.5e3`` are numbers. A whole value ``1:4`` or ``30:1`` (YAML 1.1: the base-60
+numbers 64 and 1801) is refused where it stands with the number to write instead ("write a
+ratio as a number, e.g. 0.25 or 4"). Everything else is text: ``017`` (YAML 1.1: octal 15),
+``0x1F``, ``1_000``, ``yes``/``on``, ``2025-03-14``, ``.inf`` and ``.nan``, so a field that needs
+a number or a boolean refuses them with its located message and no value is infinite or not a
+number. A number too large for a float (``1e400``, an integer of hundreds of digits) is refused
+where it is written. Explicit tags for anything but plain text, numbers, booleans, null,
+mappings and lists (``!!binary``, ``!!set``, ``!!timestamp``, ``!!python/...``) are refused.
 """
 
 from __future__ import annotations
@@ -201,6 +201,22 @@ def _construct_bool(loader, node):
     return text.lower() == "true"
 
 
+# A whole plain value "1:4" or "30:1" is a ratio written the way a drawing writes it; YAML 1.1
+# read it as a base-60 number (64, 1801). Said where it stands, with the number to write instead.
+_COLON_RATIO_TAG = "tag:specgen,2025:colon-ratio"
+_COLON_RATIO = re.compile(r"^[0-9]+(?:\.[0-9]*)?:[0-9]+(?:\.[0-9]*)?$")
+_Loader.add_implicit_resolver(_COLON_RATIO_TAG, _COLON_RATIO, list("0123456789"))
+
+
+def _construct_colon_ratio(loader, node):
+    text = loader.construct_scalar(node)
+    a, b = (float(x) for x in text.split(":"))
+    example = f"{a / b:.4g} or {b / a:.4g}" if a and b and math.isfinite(a / b) and math.isfinite(b / a) else "0.25 or 4"
+    raise _LoadProblem(node.start_mark, f"'{text}': write a ratio as a number, e.g. {example} "
+                                        f"(YAML 1.1 reads {text} as a base-60 number; quote it if it is text)")
+
+
+_Loader.add_constructor(_COLON_RATIO_TAG, _construct_colon_ratio)
 _Loader.add_constructor(_TAGS["int"], _construct_number)
 _Loader.add_constructor(_TAGS["float"], _construct_number)
 _Loader.add_constructor(_TAGS["bool"], _construct_bool)
