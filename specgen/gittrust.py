@@ -27,7 +27,8 @@ Trusted: the git program on PATH, the user's global and system git config (kept:
 repository's own ``.git`` config, which a clone writes and a commit cannot change. Its program
 settings that the commands above could reach are overridden all the same; a clean filter the
 user's own config defines for a path (git-lfs) still runs in ``status``, as it does for any git
-command the user types there.
+command the user types there; a repository whose config includes a tracked file
+(``include.path``) has chosen to trust that file's filters too.
 
 Example: ``run(["rev-parse", "HEAD"], Path("specs"))`` is git's answer for the repository holding
 ``specs/``, or None when no ``.git`` lies above it.
