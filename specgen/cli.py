@@ -14,6 +14,7 @@ from pathlib import Path
 from specgen import __version__
 from specgen.errors import Location, Problem, SpecError
 from specgen.heap import few_full_collections
+from specgen.safe_text import clip, escape
 
 EXIT_OK, EXIT_CHECKS, EXIT_INPUT = 0, 1, 2
 
@@ -97,13 +98,29 @@ def _report_parser(sub) -> None:
                    help="let a spec name files (a sizing parts file) outside its own folder tree")
 
 
-def _emit(text: str, output: str | None) -> None:
+def _emit(text: str, output: str | None, inputs=()) -> None:
+    """Write ``text`` to ``output`` (never one of ``inputs``: exit 2, nothing written), else stdout."""
     if output:
-        from specgen.output import write_atomic
+        from specgen.output import refuse_inputs, write_atomic
 
+        refuse_inputs(output, inputs)
         write_atomic(output, text)
     else:
         sys.stdout.write(text)
+
+
+def _inputs(paths: list[str], sources) -> list[Path]:
+    """Every file a run reads: the specs, their review records and the parts files they name."""
+    from specgen.intake.build_sizing import resolve_inside
+    from specgen.review import reviews_path
+
+    out = [Path(p) for p in paths] + [reviews_path(p) for p in paths]
+    for source in sources:
+        sizing = source.data.get("sizing")
+        name = sizing.get("parts_file") if isinstance(sizing, dict) else None
+        if isinstance(name, str):
+            out.append(resolve_inside(source.name, name, allow_outside=True)[0])
+    return out
 
 
 def verdict_status(outcomes, strict: bool) -> int:
@@ -127,32 +144,39 @@ def _evaluate_all(paths: list[str], allow_outside_files: bool = False):
 
 @few_full_collections()  # check renders only text or JSON: no cyclic garbage (specgen/heap.py)
 def cmd_check(args) -> int:
-    outcomes, problems = _evaluate_all(spec_paths(args.specs), args.allow_outside_files)
+    paths = spec_paths(args.specs)
+    outcomes, problems = _evaluate_all(paths, args.allow_outside_files)
     if problems:
         raise SpecError(problems)
+    inputs = _inputs(paths, [o.source for o in outcomes])
+    if args.output:
+        from specgen.output import refuse_inputs
+
+        refuse_inputs(args.output, inputs)
     from specgen.review import status
 
     reviews = [status(o.source.name, o.source) for o in outcomes]
     if args.format == "json":
         from specgen.present import json_out
 
-        _emit(json_out.render(outcomes, reviews=reviews), args.output)
+        _emit(json_out.render(outcomes, reviews=reviews), args.output, inputs)
     else:
         from specgen.present import text
 
-        _emit("\n".join(text.render(o, quiet=args.quiet, review=r) for o, r in zip(outcomes, reviews)), args.output)
+        _emit("\n".join(text.render(o, quiet=args.quiet, review=r) for o, r in zip(outcomes, reviews)), args.output,
+              inputs)
     code = verdict_status(outcomes, args.strict)
     if args.require_review:
         for o, r in zip(outcomes, reviews):
             if not r.covered:
-                print(f"review required: {o.source.name}: {r.text}", file=sys.stderr)
+                print(f"review required: {escape(o.source.name)}: {escape(r.text)}", file=sys.stderr)
                 code = max(code, EXIT_CHECKS)
     return code
 
 
 def cmd_diff(args) -> int:
     from specgen.diff import compare
-    from specgen.gitsource import read_spec
+    from specgen.gitsource import read_spec, split_revision
     from specgen.pipeline import evaluate
     from specgen.present.diff_out import render
 
@@ -164,8 +188,9 @@ def cmd_diff(args) -> int:
             problems += exc.problems
     if problems:
         raise SpecError(problems)
+    files = [a for a in (args.old, args.new) if split_revision(a) is None]
     d = compare(*sides)
-    _emit(render(d, args.format), args.output)
+    _emit(render(d, args.format), args.output, _inputs(files, [s.source for s in sides]))
     return d.exit_status(args.fail_on)
 
 
@@ -176,8 +201,8 @@ def cmd_review(args) -> int:
     o = run_file(args.spec, allow_outside_files=args.allow_outside_files)
     r = append_review(args.spec, o.source, o.machine.revision, args.by, args.role, args.verdict,
                       args.remarks, args.date)
-    print(f"recorded in {reviews_path(args.spec)}: {r.verdict} by {r.who} on {r.date} "
-          f"for fingerprint {r.short} ({o.machine.title} rev {o.machine.revision})")
+    print(escape(f"recorded in {reviews_path(args.spec)}: {r.verdict} by {r.who} on {r.date} "
+                 f"for fingerprint {r.short} ({o.machine.title} rev {o.machine.revision})"))
     return EXIT_OK
 
 
@@ -187,20 +212,36 @@ def cmd_report(args) -> int:
 
     date = report.report_date(args.date, os.environ.get("SOURCE_DATE_EPOCH"))
     report.start_drawing()  # chart workers import matplotlib while the specs are checked; write stops them
-    outcomes, problems = _evaluate_all(spec_paths(args.specs), args.allow_outside_files)
+    paths = spec_paths(args.specs)
+    outcomes, problems = _evaluate_all(paths, args.allow_outside_files)
     if problems:
         raise SpecError(problems)
+    _refuse_inputs_in_report(args.output, _inputs(paths, [o.source for o in outcomes]))
+    from specgen.output import refuse_foreign_files
+
+    refuse_foreign_files(args.output, ["index.html", "report.pdf"])  # a site's own page is never replaced
     from specgen.review import reviews_for_report
 
     written = report.write(outcomes, args.output, date=date, pdf=args.pdf,
                            reviews_for=lambda o: reviews_for_report(o.source.name, o.source))
     for note in written.notes:
-        print(f"note: {note}", file=sys.stderr)
+        print(f"note: {escape(note)}", file=sys.stderr)
     for o in outcomes:
         print(headline(o))
     for path in written.files:
-        print(f"wrote {path}")
+        print(f"wrote {escape(path)}")
     return verdict_status(outcomes, args.strict)
+
+
+def _refuse_inputs_in_report(outdir: str, inputs: list[Path]) -> None:
+    """A report folder never holds an input where a report file goes (index.html, report.pdf)."""
+    from specgen.output import refuse_inputs
+
+    root = Path(os.path.realpath(outdir))
+    for given in inputs:
+        real = Path(os.path.realpath(given))
+        if real.name in ("index.html", "report.pdf") and root in (real.parent, real.parent.parent):
+            refuse_inputs(real, [given])
 
 
 def cmd_schema(args) -> int:
@@ -219,7 +260,7 @@ def cmd_init(args) -> int:
     if Path(args.path).exists() and not args.force:
         raise SpecError([Problem(Location(args.path), "", "already exists; use --force to overwrite it")])
     write_atomic(args.path, STARTER)
-    print(f"wrote {args.path}")
+    print(f"wrote {escape(args.path)}")
     return EXIT_OK
 
 
@@ -240,14 +281,15 @@ def main(argv: list[str] | None = None) -> int:
             print(f"error: {p}", file=sys.stderr)
         return EXIT_INPUT
     except OSError as exc:
-        print(f"error: {exc.filename or ''}: {exc.strerror or exc}", file=sys.stderr)
+        print(f"error: {escape(exc.filename or '')}: {escape(exc.strerror or exc)}", file=sys.stderr)
         return EXIT_INPUT
     except KeyboardInterrupt:
         return 130
     except Exception as exc:  # a bug in specgen: say so in one line, keep the traceback for debugging
         if os.environ.get("SPECGEN_DEBUG"):
             raise
-        print(f"internal error: {type(exc).__name__}: {exc} (set SPECGEN_DEBUG=1 for details)", file=sys.stderr)
+        print(f"internal error: {type(exc).__name__}: {clip(escape(exc))} (set SPECGEN_DEBUG=1 for details)",
+              file=sys.stderr)
         return 3
 
 

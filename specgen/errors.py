@@ -1,8 +1,27 @@
-"""Errors that point at the user's file, line, column and key."""
+"""Errors that point at the user's file, line, column and key.
+
+A problem prints as one line, ``file:line:col: dotted.path: sentence``, whatever the spec holds:
+the file name, the path and the sentence are escaped (``safe_text.escape``: no line break, control
+character or bidi mark reaches the terminal), every quoted echo of input ('...') is cut to
+``safe_text.ECHO_LIMIT`` characters, the path to PATH_LIMIT and the sentence to
+``safe_text.LINE_LIMIT``, so a 30,000-item list in a spec gives a short line, not its whole text.
+"""
 
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass
+
+from specgen.safe_text import ECHO_LIMIT, LINE_LIMIT, clip, escape
+
+PATH_LIMIT = 200
+_QUOTED = re.compile(r"(?<![A-Za-z])'([^']*)'(?![A-Za-z])")  # an apostrophe (spec's) opens no echo
+
+
+def bounded(message: str) -> str:
+    """``message`` escaped, each quoted echo of input cut to ECHO_LIMIT, the whole to LINE_LIMIT."""
+    text = _QUOTED.sub(lambda m: f"'{clip(m.group(1), ECHO_LIMIT)}'", escape(message))
+    return clip(text, LINE_LIMIT)
 
 
 @dataclass(frozen=True)
@@ -15,8 +34,8 @@ class Location:
 
     def __str__(self) -> str:
         if self.line:
-            return f"{self.file}:{self.line}:{self.column}"
-        return self.file
+            return f"{escape(self.file)}:{self.line}:{self.column}"
+        return escape(self.file)
 
 
 @dataclass(frozen=True)
@@ -28,8 +47,8 @@ class Problem:
     message: str
 
     def __str__(self) -> str:
-        where = f" {self.path}:" if self.path else ""
-        return f"{self.location}:{where} {self.message}"
+        where = f" {clip(escape(self.path), PATH_LIMIT)}:" if self.path else ""
+        return f"{self.location}:{where} {bounded(self.message)}"
 
 
 class SpecError(Exception):

@@ -2,7 +2,8 @@
 
 The hash identifies exactly which bytes a report was computed from; the git part says which commit
 the work tree was at and whether the spec differs from it. git is asked read-only
-(GIT_OPTIONAL_LOCKS=0 keeps ``git status`` from refreshing the index) with a timeout, and any
+(GIT_OPTIONAL_LOCKS=0 keeps ``git status`` from refreshing the index) with a timeout, through
+``specgen.gittrust`` so no program a spec's folder names can run, and any
 failure (no git, not a work tree, a slow disk, an ownership refusal) gives no git part, never an
 error: a report must not fail because version control is absent.
 
@@ -12,10 +13,11 @@ Example: ``fingerprint(b"format: 1\\n", None).short`` is the first 12 hex digits
 from __future__ import annotations
 
 import hashlib
-import os
 import subprocess
 from dataclasses import dataclass
 from pathlib import Path
+
+from specgen import gittrust
 
 GIT_TIMEOUT_S = 5.0
 
@@ -39,13 +41,13 @@ class Fingerprint:
 
 
 def _git(args: list[str], cwd: Path) -> str | None:
-    env = dict(os.environ, GIT_OPTIONAL_LOCKS="0", LC_ALL="C", GIT_TERMINAL_PROMPT="0")
     try:
-        done = subprocess.run(["git", *args], cwd=cwd, env=env, capture_output=True, text=True,
-                              timeout=GIT_TIMEOUT_S, check=False)
+        done = gittrust.run(args, cwd, timeout=GIT_TIMEOUT_S)
     except (OSError, subprocess.SubprocessError, ValueError):
         return None
-    return done.stdout if done.returncode == 0 else None
+    if done is None or done.returncode != 0:
+        return None
+    return done.stdout.decode("utf-8", "replace")
 
 
 def git_state(path: str | Path) -> tuple[str | None, str | None]:
@@ -56,7 +58,8 @@ def git_state(path: str | Path) -> tuple[str | None, str | None]:
     head = _git(["rev-parse", "--verify", "--quiet", "HEAD"], p.parent)
     if not head:
         return None, None
-    status = _git(["status", "--porcelain", "--untracked-files=all", "--ignored=no", "--", p.name], p.parent)
+    status = _git(["status", "--porcelain", "--untracked-files=all", "--ignored=no", "--ignore-submodules=all",
+                   "--no-renames", "--", p.name], p.parent)
     if status is None:
         return None, None
     code = status[:2]

@@ -3,7 +3,9 @@
 ``REV:path`` (``HEAD~1:specs/loader.yaml``, ``main:specs/loader.yaml``) is read with
 ``git show REV:path`` in the current folder's repository; as in git, ``path`` is taken from the
 repository's top folder, and ``REV:./path`` from the current folder. Only reading commands are
-run: the index, the work tree and the history are left alone. Anything else is a plain file path;
+run: the index, the work tree and the history are left alone. The repository is the first
+``.git`` above the current folder, and git runs through ``specgen.gittrust``, so no program a
+repository-like folder or a config names can run (``show`` also with --no-textconv --no-ext-diff). Anything else is a plain file path;
 a path that exists as a file always wins, so a file name holding a colon still reads as a file.
 
 Failures (git missing, not a repository, an unknown revision, a path not in that revision) are
@@ -15,10 +17,10 @@ data is the spec as committed, whatever the file on disk now holds.
 
 from __future__ import annotations
 
-import os
 import subprocess
 from pathlib import Path
 
+from specgen import gittrust
 from specgen.errors import Location, Problem, SpecError
 from specgen.intake.read import MAX_BYTES, Source, load_file, load_text
 
@@ -40,13 +42,15 @@ def _fail(arg: str, message: str) -> SpecError:
 
 
 def _git(arg: str, args: list[str]) -> subprocess.CompletedProcess:
-    env = dict(os.environ, GIT_OPTIONAL_LOCKS="0", LC_ALL="C", GIT_TERMINAL_PROMPT="0", GIT_PAGER="cat")
     try:
-        return subprocess.run(["git", *args], capture_output=True, env=env, timeout=GIT_TIMEOUT_S, check=False)
-    except FileNotFoundError:
+        done = gittrust.run(args, Path.cwd(), timeout=GIT_TIMEOUT_S)
+    except OSError:
         raise _fail(arg, "cannot read a revision: git is not installed or not on PATH") from None
     except subprocess.TimeoutExpired:
         raise _fail(arg, f"git did not answer within {GIT_TIMEOUT_S:.0f} s") from None
+    if done is None:
+        raise _fail(arg, f"cannot read revision '{arg.split(':', 1)[0]}': the current folder is not in a git repository")
+    return done
 
 
 def _first_line(raw: bytes) -> str:
@@ -75,7 +79,7 @@ def read_revision(arg: str, rev: str, path: str) -> bytes:
     size = _git(arg, ["cat-file", "-s", f"{rev}:{path}"])
     if size.returncode == 0 and int(size.stdout.strip() or 0) > MAX_BYTES:
         raise _fail(arg, f"file is {int(size.stdout)} bytes; specs are limited to {MAX_BYTES} bytes")
-    shown = _git(arg, ["show", "--no-textconv", f"{rev}:{path}"])
+    shown = _git(arg, ["show", "--no-textconv", "--no-ext-diff", f"{rev}:{path}"])
     if shown.returncode != 0:
         raise _fail(arg, _first_line(shown.stderr))
     return shown.stdout

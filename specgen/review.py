@@ -44,7 +44,7 @@ import yaml
 from specgen.errors import Location, Problem, SpecError
 from specgen.output import write_atomic
 from specgen.intake.content import normalised
-from specgen.intake.read import Source, load_text
+from specgen.intake.read import Source, load_file, load_text
 
 REVIEWS_SUFFIX = ".reviews.yaml"
 REVIEW_FORMAT = 1
@@ -101,7 +101,6 @@ def named_parts_files(source: Source) -> dict:
     Read only after the spec was built, which has already refused files outside its folder tree.
     """
     from specgen.intake.build_sizing import resolve_inside
-    from specgen.intake.read import load_file
 
     sizing = source.data.get("sizing")
     name = sizing.get("parts_file") if isinstance(sizing, dict) else None
@@ -166,14 +165,17 @@ def _parse(source: Source) -> list[Review]:
 
 def read_reviews(path: str | Path) -> list[Review]:
     """Every record in a reviews file, oldest first; [] when there is no file."""
+    source = _load_reviews(path)
+    return _parse(source) if source is not None else []
+
+
+def _load_reviews(path: str | Path) -> Source | None:
+    """The reviews file as loaded, with the limits of a spec (a regular file of at most
+    read.MAX_BYTES, inside the spec's folder tree); None when there is no file."""
     p = Path(path)
-    try:
-        raw = p.read_bytes()
-    except FileNotFoundError:
-        return []
-    except OSError as exc:
-        raise SpecError([Problem(Location(str(p)), "", f"cannot read: {exc.strerror or exc}")]) from None
-    return _parse(load_text(raw, str(p)))
+    if not os.path.lexists(p):
+        return None
+    return load_file(p, inside=p.parent)
 
 
 def _one_line(label: str, text: str, limit: int) -> str:
@@ -194,11 +196,9 @@ def append_review(spec_path: str | Path, source: Source, machine_revision: str, 
                     date=review_date(when), verdict=verdict, fingerprint=spec_fingerprint(source),
                     machine_revision=machine_revision, remarks=remarks.strip())
     target = reviews_path(spec_path)
-    old = read_reviews(target)
-    try:
-        head = target.read_bytes()
-    except FileNotFoundError:
-        head = _header(Path(spec_path).name)
+    loaded = _load_reviews(target)
+    old = _parse(loaded) if loaded is not None else []
+    head = loaded.raw if loaded is not None else _header(Path(spec_path).name)
     if head and not head.endswith(b"\n"):
         head += b"\n"
     entry = yaml.safe_dump([asdict(record)], sort_keys=False, allow_unicode=True, default_flow_style=False)

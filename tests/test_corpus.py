@@ -36,7 +36,7 @@ def expectations(case: Path) -> list[tuple[str, int | None]]:
     else:
         source = case
     found: list[tuple[str, int | None]] = []
-    for raw in source.read_bytes().decode("latin-1").splitlines():
+    for raw in source.read_bytes().decode("utf-8", "replace").splitlines():
         if raw.startswith("# expect: "):
             found.append((raw[len("# expect: "):], None))
         elif raw.startswith("# line: "):

@@ -4,11 +4,25 @@ Only plain YAML data is built (SafeLoader): no tag can construct a Python object
 value count (also after alias expansion) and nesting are bounded by MAX_BYTES, MAX_NODES and
 MAX_DEPTH, checked while reading, so a hostile file is refused before it costs time or memory.
 Every message is one printable line: text quoted from the spec has its control characters escaped.
+
+Plain (unquoted) values are read by the YAML 1.2 core rules, not PyYAML's YAML 1.1 ones, so no
+value turns into a number the writer did not write: ``true``/``false`` are booleans; ``12``,
+``-3``, ``0.92``, ``2.5e3`` are numbers. A whole value ``1:4`` or ``30:1`` (YAML 1.1: the base-60
+numbers 64 and 1801) is refused where it stands with the number to write instead ("write a
+ratio as a number, e.g. 0.25 or 4"). Everything else is text: ``017`` (YAML 1.1: octal 15),
+``0x1F``, ``1_000``, ``yes``/``on``, ``2025-03-14``, ``.inf`` and ``.nan``, so a field that needs
+a number or a boolean refuses them with its located message and no value is infinite or not a
+number. A number too large for a float (``1e400``, an integer of hundreds of digits) is refused
+where it is written. Explicit tags for anything but plain text, numbers, booleans, null,
+mappings and lists (``!!binary``, ``!!set``, ``!!timestamp``, ``!!python/...``) are refused.
 """
 
 from __future__ import annotations
 
+import math
 import os
+import re
+import stat
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -146,6 +160,67 @@ class _Loader(_reader_base()):
         return result
 
 
+# YAML 1.2 core scalars only (see the module text). A resolver is tried by a value's first
+# character; the first pattern that matches the whole value gives its type, else it is text.
+_BOOL = re.compile(r"^(?:true|True|TRUE|false|False|FALSE)$")
+_INT = re.compile(r"^[-+]?(?:0|[1-9][0-9]*)$")  # "017" stays text: YAML 1.1 read it as octal 15
+_FLOAT = re.compile(r"^[-+]?(?:\.[0-9]+|[0-9]+\.[0-9]*|[0-9]+(?=[eE]))(?:[eE][-+]?[0-9]+)?$")
+_MAX_DIGITS = 300  # a float holds up to about 1.8e308; Python refuses ints of over 4300 digits
+_TAGS = {"bool": "tag:yaml.org,2002:bool", "int": "tag:yaml.org,2002:int", "float": "tag:yaml.org,2002:float"}
+_ALLOWED_TAGS = {"tag:yaml.org,2002:" + t for t in ("str", "int", "float", "bool", "null", "map", "seq")}
+
+_Loader.yaml_implicit_resolvers = {
+    first: [(tag, rx) for tag, rx in resolvers if tag in ("tag:yaml.org,2002:null", "tag:yaml.org,2002:merge")]
+    for first, resolvers in _Loader.yaml_implicit_resolvers.items()
+}
+_Loader.add_implicit_resolver(_TAGS["bool"], _BOOL, list("tTfF"))
+_Loader.add_implicit_resolver(_TAGS["int"], _INT, list("-+0123456789"))
+_Loader.add_implicit_resolver(_TAGS["float"], _FLOAT, list("-+.0123456789"))
+_Loader.yaml_constructors = {tag: f for tag, f in _Loader.yaml_constructors.items()
+                             if tag is None or tag in _ALLOWED_TAGS}
+
+
+def _construct_number(loader, node):
+    """An int or finite float written in decimal; anything else (also under an explicit !!int or
+    !!float tag: 0x1F, 1_000, .nan) is refused where it stands."""
+    text = loader.construct_scalar(node)
+    if not (_INT.match(text) or node.tag == _TAGS["float"] and _FLOAT.match(text)):
+        raise _LoadProblem(node.start_mark, f"'{one_line(text[:40])}' is not a decimal number such as 12 or 0.92")
+    if sum(c.isdigit() for c in text) > _MAX_DIGITS:
+        raise _LoadProblem(node.start_mark, f"a number of more than {_MAX_DIGITS} digits is too large to compute with")
+    value = int(text) if node.tag == _TAGS["int"] else float(text)
+    if isinstance(value, float) and not math.isfinite(value) or isinstance(value, int) and abs(value) > 1e300:
+        raise _LoadProblem(node.start_mark, f"{text} is too large a number to compute with")
+    return value
+
+
+def _construct_bool(loader, node):
+    text = loader.construct_scalar(node)
+    if not _BOOL.match(text):
+        raise _LoadProblem(node.start_mark, f"'{one_line(text[:40])}' is not a boolean; write true or false")
+    return text.lower() == "true"
+
+
+# A whole plain value "1:4" or "30:1" is a ratio written the way a drawing writes it; YAML 1.1
+# read it as a base-60 number (64, 1801). Said where it stands, with the number to write instead.
+_COLON_RATIO_TAG = "tag:specgen,2025:colon-ratio"
+_COLON_RATIO = re.compile(r"^[0-9]+(?:\.[0-9]*)?:[0-9]+(?:\.[0-9]*)?$")
+_Loader.add_implicit_resolver(_COLON_RATIO_TAG, _COLON_RATIO, list("0123456789"))
+
+
+def _construct_colon_ratio(loader, node):
+    text = loader.construct_scalar(node)
+    a, b = (float(x) for x in text.split(":"))
+    example = f"{a / b:.4g} or {b / a:.4g}" if a and b and math.isfinite(a / b) and math.isfinite(b / a) else "0.25 or 4"
+    raise _LoadProblem(node.start_mark, f"'{text}': write a ratio as a number, e.g. {example} "
+                                        f"(YAML 1.1 reads {text} as a base-60 number; quote it if it is text)")
+
+
+_Loader.add_constructor(_COLON_RATIO_TAG, _construct_colon_ratio)
+_Loader.add_constructor(_TAGS["int"], _construct_number)
+_Loader.add_constructor(_TAGS["float"], _construct_number)
+_Loader.add_constructor(_TAGS["bool"], _construct_bool)
+
 # Build mappings and sequences eagerly through the overrides above so every one carries marks.
 _Loader.add_constructor("tag:yaml.org,2002:map", lambda loader, node: loader.construct_mapping(node))
 _Loader.add_constructor("tag:yaml.org,2002:seq", lambda loader, node: loader.construct_sequence(node))
@@ -257,23 +332,44 @@ def _too_big(size: int) -> str:
     return f"file is {size} bytes; specs are limited to {MAX_BYTES} bytes ({MAX_BYTES // 1024} KiB)"
 
 
-def load_file(path: str | Path) -> Source:
-    """Read and parse one spec file; never reads more than MAX_BYTES + 1 bytes of it."""
+def load_file(path: str | Path, inside: str | Path | None = None) -> Source:
+    """Read and parse one spec file; never reads more than MAX_BYTES + 1 bytes of it.
+
+    Only a regular file is read: a folder, FIFO (which would block), device (/dev/zero never
+    ends) or socket is refused, also behind a symbolic link, by the type of what was opened, so
+    nothing can be swapped in between a test and the read. ``inside``: a folder the file's real
+    path (links followed) must lie in, for files that sit beside a spec (its review record).
+    """
     p = Path(path)
     name = str(path)
     where = Location(name)
-    if p.is_dir():
-        raise SpecError([problem(where, "", "is a folder, not a spec file")])
-    if p.exists() and not p.is_file():  # a FIFO or device would block or never end
-        raise SpecError([problem(where, "", "is not a regular file")])
+    if inside is not None:
+        base = os.path.realpath(inside)
+        real = os.path.realpath(p)
+        if os.path.commonpath([base, real]) != base:
+            raise SpecError([problem(where, "", f"resolves to {real}, outside the folder {base}; "
+                                                "a file beside a spec must lie in the spec's folder tree")])
     try:
-        with p.open("rb") as fh:
+        fd = os.open(p, os.O_RDONLY | getattr(os, "O_NONBLOCK", 0) | getattr(os, "O_NOCTTY", 0))
+    except FileNotFoundError:
+        raise SpecError([problem(where, "", "no such file")]) from None
+    except IsADirectoryError:
+        raise SpecError([problem(where, "", "is a folder, not a spec file")]) from None
+    except OSError as exc:
+        raise SpecError([problem(where, "", f"cannot read: {exc.strerror or exc}")]) from None
+    try:
+        mode = os.fstat(fd).st_mode
+        if stat.S_ISDIR(mode):
+            raise SpecError([problem(where, "", "is a folder, not a spec file")])
+        if not stat.S_ISREG(mode):  # a FIFO or device would block or never end
+            raise SpecError([problem(where, "", "is not a regular file")])
+        with os.fdopen(os.dup(fd), "rb") as fh:
             raw = fh.read(MAX_BYTES + 1)
             if len(raw) > MAX_BYTES:
                 size = os.fstat(fh.fileno()).st_size
                 raise SpecError([problem(where, "", _too_big(max(size, len(raw))))])
-    except FileNotFoundError:
-        raise SpecError([problem(where, "", "no such file")]) from None
     except OSError as exc:
         raise SpecError([problem(where, "", f"cannot read: {exc.strerror or exc}")]) from None
+    finally:
+        os.close(fd)
     return load_text(raw, name)

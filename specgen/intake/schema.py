@@ -133,6 +133,8 @@ def message(error, root: dict | None = None) -> tuple[tuple, str]:
         if "propertyNames" in error.schema_path:  # an id used as a key: point at the key itself
             path = path + (error.instance,)
         return path, f"'{error.instance}' is not a valid id (letters, digits, '-' and '_', starting with a letter)"
+    if v == "pattern" and isinstance(error.instance, str) and any(c in error.instance for c in "\n\r\u2028\u2029"):
+        return path, f"{_short(error.instance)} must be one line: line breaks are not allowed here"
     if v == "propertyNames":  # point at the offending key itself
         return path + (error.instance,), f"'{error.instance}' is not a valid id (letters, digits, '-' and '_', starting with a letter)"
     if v == "maxLength":

@@ -9,12 +9,14 @@ Checks failing unchanged on both sides are listed too, and the caution line clos
 from __future__ import annotations
 
 import json
+import re
 
 from specgen import __version__
 from specgen.cautions import SHORT
 from specgen.diff import INPUT_TOLERANCE, RESULT_TOLERANCE, Diff, InputChange, Side
 from specgen.present.text import table
 from specgen.present.values import convert, format_si, significant
+from specgen.safe_text import escape
 from specgen.units import KINDS
 
 DIFF_FORMAT = 1
@@ -213,12 +215,26 @@ def render_text(d: Diff) -> str:
     return "\n".join(out) + "\n"
 
 
+# Markdown a cell must not render from spec text: emphasis and strikethrough (* _ ~), code (`),
+# links and images ([ ]), math ($), table pipes (|), HTML and autolinks (< &), and, on the
+# site that shows the comment, @mentions, #123 references and bare URLs (a zero-width space, as an
+# entity, splits them without changing what a reader sees).
+_MD_ESCAPED = "\\`*_~[]$|"  # ( ) and ! form nothing once [ and ] are escaped
+_ZWSP = "&#8203;"
+
+
 def _md_cell(text: str) -> str:
-    """Cell text that cannot break a GitHub table or inject markup."""
-    text = " ".join(str(text).split())
-    for a, b in (("\\", "\\\\"), ("|", "\\|"), ("&", "&amp;"), ("<", "&lt;"), ("`", "\\`"),
-                 ("*", "\\*"), ("_", "\\_")):
-        text = text.replace(a, b)
+    """Cell text that cannot break a GitHub table or inject markup, mentions or links."""
+    text = " ".join(escape(" ".join(str(text).split())).split(" "))
+    text = "".join("\\" + c if c in _MD_ESCAPED else c for c in text)
+    text = text.replace("&", "&amp;").replace("<", "&lt;")
+    text = re.sub(r"(?<!&)#(?=[0-9])", "#" + _ZWSP, text)
+    text = re.sub(r"@(?=\w)", "@" + _ZWSP, text)
+    text = re.sub(r"(?i)(?<=[a-z]):(?=//)", ":" + _ZWSP, text)
+    text = re.sub(r"(?i)\b(www)\.", r"\1" + _ZWSP + ".", text)
+    if text[:1] in ("#", ">", "-", "+", "="):
+        text = "\\" + text  # a block marker where a line starts: heading, quote, list, rule
+    text = re.sub(r"^([0-9]{1,9})([.)])(?= |$)", r"\1\\\2", text)  # an ordered list item
     return text
 
 

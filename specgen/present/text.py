@@ -7,6 +7,7 @@ from specgen.checks.status import RANK
 from specgen.pipeline import Outcome
 from specgen.present.json_out import assumed_list
 from specgen.present.values import format_si
+from specgen.safe_text import escape
 
 DUTY_COLUMNS = (
     ("motor_torque", "T motor"), ("motor_speed", "n motor"), ("pressure_differential", "dp"),
@@ -19,6 +20,7 @@ SUPPLY_COLUMNS = (
 )
 
 def table(header: list[str], rows: list[list[str]]) -> list[str]:
+    rows = [[escape(c) for c in r] for r in rows]  # ids and notes from the spec: one line each
     widths = [max(len(r[i]) for r in [header] + rows) for i in range(len(header))]
     def line(cells):
         return "  ".join(c.ljust(w) for c, w in zip(cells, widths)).rstrip()
@@ -27,7 +29,7 @@ def table(header: list[str], rows: list[list[str]]) -> list[str]:
 
 def headline(o: Outcome) -> str:
     m, c = o.machine, o.results.counts()
-    return (f"{o.source.name}: {o.results.verdict.upper()}  {m.title} rev {m.revision}  "
+    return (f"{escape(o.source.name)}: {o.results.verdict.upper()}  {escape(m.title)} rev {escape(m.revision)}  "
             f"({c['pass']} pass, {c['warn']} warn, {c['fail']} fail)")
 
 
@@ -35,7 +37,7 @@ def checks_lines(o: Outcome, only_problems: bool) -> list[str]:
     checks = sorted(o.results.checks, key=lambda c: -RANK[c.status])
     if only_problems:
         checks = [c for c in checks if c.status != "pass"]
-    return [f"{c.status.upper():4}  {c.id:20} {c.where}: {c.message}" for c in checks]
+    return [f"{c.status.upper():4}  {c.id:20} {escape(c.where)}: {escape(c.message)}" for c in checks]
 
 
 def fluid_sizing_heat_lines(o: Outcome, system: str) -> list[str]:
@@ -55,7 +57,7 @@ def fluid_sizing_heat_lines(o: Outcome, system: str) -> list[str]:
 def render(o: Outcome, quiet: bool = False, review=None) -> str:
     """``review``: the spec's review.ReviewStatus, shown under the headline when given."""
     system = o.machine.display_units
-    out = [headline(o)] + ([f"Review: {review.text}"] if review is not None else [])
+    out = [headline(o)] + ([f"Review: {escape(review.text)}"] if review is not None else [])
     if not quiet:
         out += ["", "Drives at each duty point (motor shaft)"]
         rows = []
@@ -77,6 +79,7 @@ def render(o: Outcome, quiet: bool = False, review=None) -> str:
     assumed = assumed_list(o.results, system)
     if assumed and not quiet:
         out += ["", "Assumed values (not given in the spec)"]
-        out += [f"  {a['where']} = {a['value']:g}{' ' + a['unit'] if 'unit' in a else ''}: {a['basis']}" for a in assumed]
+        out += [escape(f"  {a['where']} = {a['value']:g}{' ' + a['unit'] if 'unit' in a else ''}: {a['basis']}")
+                for a in assumed]
     out += ["", SHORT] if not quiet else ([SHORT] if problems else [])
     return "\n".join(out) + "\n"
