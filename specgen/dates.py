@@ -21,7 +21,7 @@ from specgen.errors import Location, Problem, SpecError
 EPOCH_VARIABLE = "SOURCE_DATE_EPOCH"
 NOT_A_DATE = "'{text}' is not a date written YYYY-MM-DD (or YYYYMMDD)"
 NOT_SECONDS = "'{text}' is not a whole number of seconds since 1970-01-01"
-_FORMS = re.compile(r"(\d{4})-(\d{2})-(\d{2})|(\d{4})(\d{2})(\d{2})")
+_FORMS = re.compile(r"(\d{4})-(\d{2})-(\d{2})|(\d{4})(\d{2})(\d{2})", re.ASCII)  # not other scripts' digits
 
 
 def parse_date(text: str, where: str = "--date") -> str:
