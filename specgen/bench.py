@@ -37,12 +37,21 @@ import sys
 import tempfile
 import time
 from dataclasses import dataclass, field
+from importlib import resources
 from pathlib import Path
 
 import yaml
 
-DEMO = Path(__file__).resolve().parent.parent / "example_specs" / "reed_harvester.yaml"
+DEMO_NAME = "reed_harvester.yaml"
 MODE_SETS = 10  # each generated mode runs the drives of every tenth group
+
+
+def demo_spec() -> Path:
+    """The demo spec: the copy the wheel carries (specgen/_data/demo/), else the checkout's example_specs/."""
+    packaged = resources.files("specgen") / "_data" / "demo" / DEMO_NAME
+    if packaged.is_file():
+        return Path(str(packaged))
+    return Path(__file__).resolve().parent.parent / "example_specs" / DEMO_NAME
 
 
 def _demo_data(demo: Path) -> dict:
@@ -180,12 +189,16 @@ def _imports_plotting(demo: Path, env: dict) -> str:
 
 BASE_CHECK = "import yaml, jsonschema, pint"
 BASE_REPORT = "matplotlib.pyplot + 1 SVG"
+# specgen report with every chart drawn in this one process (chart_batch finds no fork to use)
+_SERIAL_CHARTS = ("import sys; from specgen.present import chart_batch; chart_batch.can_fork = lambda: False; "
+                  "from specgen.cli import main; sys.exit(main(sys.argv[1:]))")
+SERIAL = ", charts serial"
 _FIGURE = ("import sys, matplotlib.pyplot as plt; fig, ax = plt.subplots(); ax.plot([0, 1, 2], [0, 1, 4]); "
            "fig.savefig(sys.argv[1], format='svg')")
 
 
 def build_cases(work: Path, demo: Path, sizes: tuple[int, int], n_modes: int, copies: int,
-                env: dict, with_report: bool = True) -> tuple[dict[str, Case], list[str]]:
+                env: dict, with_report: bool = True, charts: bool = False) -> tuple[dict[str, Case], list[str]]:
     """Write the specs into ``work`` and return the cases by name, and notes on any left out."""
     py, notes = sys.executable, []
     data = _demo_data(demo)
@@ -212,6 +225,11 @@ def build_cases(work: Path, demo: Path, sizes: tuple[int, int], n_modes: int, co
         report = [py, "-m", "specgen", "report"]
         cases += [Case(BASE_REPORT, [py, "-c", _FIGURE, str(work / "baseline.svg")]),
                   Case("report demo", report + [str(demo), "-o", str(work / "report_1")])]
+        if charts:  # the chart workers against drawing every chart in the one process
+            serial = [py, "-c", _SERIAL_CHARTS, "report"]
+            cases += [Case("report demo" + SERIAL, serial + [str(demo), "-o", str(work / "report_1s")]),
+                      Case(f"report {sizes[0]} drives", report + [str(small), "-o", str(work / "report_n")]),
+                      Case(f"report {sizes[0]} drives" + SERIAL, serial + [str(small), "-o", str(work / "report_ns")])]
         if "SPEC [SPEC" not in report_help:
             notes.append(f"report on {copies} specs skipped: report takes one spec in this version")
         else:
@@ -263,9 +281,12 @@ def main(argv: list[str] | None = None) -> int:
     ap.add_argument("--sizes", default="100,1000", help="drive counts of the two generated specs [100,1000]")
     ap.add_argument("--modes", type=int, default=50, help="modes in the generated specs [50]")
     ap.add_argument("--copies", type=int, default=50, help="copies of the demo spec checked in one call [50]")
-    ap.add_argument("--demo", type=Path, default=DEMO, help="the spec the copies and generated specs are made from")
+    ap.add_argument("--demo", type=Path, help="the spec the copies and generated specs are made from [the packaged demo]")
     ap.add_argument("--no-report", action="store_true", help="leave out the report cases (the slowest)")
+    ap.add_argument("--charts", action="store_true",
+                    help="also time report with every chart drawn serially, on the demo and the smaller generated spec")
     args = ap.parse_args(argv)
+    args.demo = args.demo or demo_spec()
     repeats = args.repeats or (3 if args.quick else 7)
     sizes = tuple(int(s) for s in args.sizes.split(","))
     if len(sizes) != 2 or not 0 < sizes[0] < sizes[1] or repeats < 1 or args.modes < 1 or args.copies < 1:
@@ -273,7 +294,8 @@ def main(argv: list[str] | None = None) -> int:
     load_before = os.getloadavg()[0]
     with tempfile.TemporaryDirectory(prefix="specgen-bench-") as tmp:
         env = _env(Path(tmp))
-        cases, notes = build_cases(Path(tmp), args.demo, sizes, args.modes, args.copies, env, not args.no_report)
+        cases, notes = build_cases(Path(tmp), args.demo, sizes, args.modes, args.copies, env, not args.no_report,
+                                   args.charts)
         try:
             measure(cases, repeats, env)
             plotting = _imports_plotting(args.demo, env)
@@ -298,6 +320,10 @@ def main(argv: list[str] | None = None) -> int:
     print(f"  {'MISS' if plotting else 'ok  '}  modules check loads for plotting or templates: "
           f"{plotting or 'none'} (target none)")
     for name, case in cases.items():
+        if name.endswith(SERIAL):
+            parallel = cases[name.removesuffix(SERIAL)].median
+            print(f"  info  {name.removesuffix(SERIAL)}: workers save {1 - parallel / case.median:.0%} of the serial "
+                  f"time ({parallel:.2f} s against {case.median:.2f} s; no target)")
         if case.once and "report demo" in cases:
             print(f"  info  {name} / report demo: {case.median / cases['report demo'].median:.2f} (no target)")
     print("all targets met" if not missed else f"{missed} target(s) missed")
