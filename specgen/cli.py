@@ -181,6 +181,7 @@ def cmd_report(args) -> int:
     from specgen.present.text import headline
 
     date = given_date(args.date, os.environ)
+    report.start_drawing()  # chart workers import matplotlib while the specs are checked; write stops them
     outcomes, problems = _evaluate_all(spec_paths(args.specs), args.allow_outside_files)
     if problems:
         raise SpecError(problems)

@@ -43,10 +43,14 @@ def test_workers_draw_the_same_bytes_in_the_same_order_as_this_process():
 
 
 @forking
-def test_report_page_is_identical_with_workers_and_without():
+def test_report_page_is_identical_with_started_workers_and_without():
     o = run_file(EXAMPLE)
     assert chart_batch.workers_for(10**6) > 1 and chart_batch.workers_for(chart_batch.FORK_FROM - 1) == 1
-    with_workers = report.render(o, fp=FIXED)  # 18 charts: forked workers draw them
+    try:
+        assert report.start_drawing()
+        with_workers = report.render(o, fp=FIXED)
+    finally:
+        chart_batch.stop_workers()
     real = chart_batch.FORK_FROM
     try:
         chart_batch.FORK_FROM = 10**6  # no workers at all: every chart drawn here
@@ -77,17 +81,36 @@ def _broken_chart(fig_id, title):
 
 
 @forking
-def test_workers_pass_a_chart_error_back_and_the_next_batch_draws_its_own_charts():
-    batch = chart_batch.Batch()
-    ask(batch, 8)
-    batch(_broken_chart, "fig8", "the ninth chart")
-    with pytest.raises(RuntimeError, match="the ninth chart drawn wrong"):
-        batch.draw(workers=2)
-    again, alone = chart_batch.Batch(), chart_batch.Batch()
-    drawn, expected = ask(again, 9), ask(alone, 9)
-    again.draw(workers=2)
-    alone.draw(workers=1)
-    assert [c.svg for c in drawn] == [c.svg for c in expected]  # its own answer, not the one before
+def test_started_workers_pass_a_chart_error_back_and_then_draw_the_next_batch():
+    try:
+        assert chart_batch.start_workers()
+        batch = chart_batch.Batch()
+        ask(batch, 8)
+        batch(_broken_chart, "fig8", "the ninth chart")
+        with pytest.raises(RuntimeError, match="the ninth chart drawn wrong"):
+            batch.draw()
+        again, alone = chart_batch.Batch(), chart_batch.Batch()
+        drawn, expected = ask(again, 3), ask(alone, 3)
+        again.draw()
+        alone.draw(workers=1)
+        assert [c.svg for c in drawn] == [c.svg for c in expected]  # its own answer, not the one before
+    finally:
+        chart_batch.stop_workers()
+
+
+@forking
+def test_charts_are_drawn_here_when_the_started_workers_are_gone():
+    try:
+        assert chart_batch.start_workers()
+        chart_batch._WORKERS._process.kill()
+        chart_batch._WORKERS._process.join()
+        batch, alone = chart_batch.Batch(), chart_batch.Batch()
+        drawn, expected = ask(batch, 9), ask(alone, 9)
+        batch.draw()
+        alone.draw(workers=1)
+        assert [c.svg for c in drawn] == [c.svg for c in expected]
+    finally:
+        chart_batch.stop_workers()
 
 
 def test_a_chart_asked_for_and_not_drawn_says_so():

@@ -11,11 +11,11 @@
 
 from specgen.present.report.chart_data import MARGIN_CHECKS, MARGIN_ROWS_PER_CHART, margin_rows
 from specgen.present.report.folder import (PDF_FILE, REPORT_FILE, Written, css_string, environment, render,
-                                           render_index, write)
+                                           render_index, start_drawing, write)
 from specgen.present.report.page_context import MANUAL_ITEMS, SIGNOFF_ROLES, STATUS_ORDER, context
 from specgen.present.report.values import STATUS_WORD, Segment, show, slug, substitute, trace_row
 
 __all__ = ["MANUAL_ITEMS", "MARGIN_CHECKS", "MARGIN_ROWS_PER_CHART", "PDF_FILE", "REPORT_FILE", "SIGNOFF_ROLES",
            "STATUS_ORDER", "STATUS_WORD", "Segment", "Written", "context", "css_string", "environment",
-           "margin_rows", "render", "render_index", "show", "slug", "substitute", "trace_row",
+           "margin_rows", "render", "render_index", "show", "slug", "start_drawing", "substitute", "trace_row",
            "write"]

@@ -17,6 +17,7 @@ from specgen import __version__
 from specgen.errors import Location, Problem, SpecError
 from specgen.fingerprint import Fingerprint, fingerprint
 from specgen.pipeline import Outcome
+from specgen.present import chart_batch
 from specgen.present.chart_batch import Batch
 from specgen.present.report.page_context import context
 from specgen.present.report.values import STATUS_WORD, slug
@@ -76,6 +77,12 @@ def render_index(entries: list[dict], date: str | None) -> str:
 def _spec_path(o: Outcome) -> Path | None:
     p = Path(o.source.name)
     return p if p.is_file() else None
+
+
+def start_drawing() -> bool:
+    """Start the chart workers now (chart_batch.start_workers), before the specs are read and
+    checked, so that they import matplotlib meanwhile on the other cores; ``write`` stops them."""
+    return chart_batch.start_workers()
 
 
 @dataclass
@@ -162,4 +169,5 @@ def write(outcomes: list[Outcome], outdir: str | Path, *, date: str | None = Non
                 notes.append(f"removed {stale} from an earlier run: it no longer matches this report")
         return Written([target / p for p in rel], notes)
     finally:
+        chart_batch.stop_workers()
         shutil.rmtree(staging, ignore_errors=True)
