@@ -89,6 +89,7 @@ def drive_charts(o: Outcome, drive, duties, system: str, fig_n, draw: Batch) -> 
 
 
 def supply_charts(o: Outcome, sup, modes, system: str, fig_n, draw: Batch) -> list:
+    """Flow demand and pump input power by mode for one supply, with its delivery and prime mover power."""
     q_unit, w_unit = convert(0.0, "flow", system)[1], convert(0.0, "power", system)[1]
     by_check = {(c.id, c.supply, c.mode): c.status for c in o.results.checks if c.supply}
     titles = {m.id: m.id for m in o.machine.modes}
@@ -135,6 +136,7 @@ def margin_rows(o: Outcome) -> list[charts.MarginRow]:
 
 
 def margin_charts(o: Outcome, fig_n, draw: Batch) -> list:
+    """Every margin, smallest first, on as few charts of MARGIN_ROWS_PER_CHART rows as hold them."""
     rows = sorted(margin_rows(o), key=lambda r: (r.margin, r.label))
     count = -(-len(rows) // MARGIN_ROWS_PER_CHART)  # charts needed; rows shared evenly between them
     size = -(-len(rows) // max(count, 1))

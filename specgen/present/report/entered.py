@@ -115,6 +115,7 @@ def drive_rows(o: Outcome, drive, system: str) -> list[dict]:
 
 
 def duty_rows(o: Outcome, drive, system: str) -> list[dict]:
+    """Each duty point's torque, speed and starting torque as entered, and anything else written under it."""
     data = o.source.data
     out = []
     for d in drive.duty_points:
@@ -130,6 +131,7 @@ def duty_rows(o: Outcome, drive, system: str) -> list[dict]:
 
 
 def given_text(o: Outcome, drive_id: str, duty_id: str, key: str) -> str | None:
+    """What the spec wrote for a load torque or speed a trace row shows (None for computed values)."""
     path = {"load_torque": "torque", "load_speed": "speed"}.get(key)
     if path is None:
         return None
@@ -137,6 +139,7 @@ def given_text(o: Outcome, drive_id: str, duty_id: str, key: str) -> str | None:
 
 
 def fluid_rows(o: Outcome, system: str) -> list[dict]:
+    """The fluid's grade, working temperature and density as entered."""
     f = o.machine.fluid
     if f is None:
         return []

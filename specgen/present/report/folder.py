@@ -24,11 +24,11 @@ from specgen.present.report.values import STATUS_WORD, slug
 from specgen.resources import data_dir
 
 REPORT_FILE = "index.html"
-
 PDF_FILE = "report.pdf"
 
 
 def environment():
+    """The Jinja2 environment of report_templates/: autoescape on, undefined names an error."""
     import jinja2
 
     env = jinja2.Environment(loader=jinja2.FileSystemLoader(str(data_dir("report_templates"))),
@@ -71,6 +71,7 @@ def render(o: Outcome, *, fp: Fingerprint | None = None, date: str | None = None
 
 
 def render_index(entries: list[dict], date: str | None) -> str:
+    """The index page listing several specs' reports with their verdicts."""
     return environment().get_template("index.html").render(entries=entries, date=date, version=__version__)
 
 

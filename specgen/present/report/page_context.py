@@ -78,7 +78,7 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
     supplies = [_supply_context(o, sup, system, checks, fig_n, draw) for sup in m.supplies]
     drives = [_drive_context(o, d, system, checks, fig_n, draw) for d in m.drives]
     mode_traces = [_trace_block(f"mode-{slug(x.mode)}", f"Mode {x.mode}", x.values, system, checks)
-                   for x in r.modes if x.values]
+                   for x in map(r.mode_result, (md.id for md in m.modes)) if x is not None and x.values]
     fluid_values = r.fluid
     if own_batch:
         draw.draw()
@@ -152,7 +152,7 @@ def _trace_block(anchor: str, title: str, values: dict, system: str, checks: lis
 
 def _supply_context(o: Outcome, sup, system: str, checks: list[dict], fig_n, draw: Batch) -> dict:
     m, r = o.machine, o.results
-    modes = [x for x in r.supply_modes if x.supply == sup.id]
+    modes = [x for x in (r.supply_mode(sup.id, md.id) for md in m.modes) if x is not None]
     entered = supply_rows(o, sup, system)
     whole = r.supply_result(sup.id)
     traces = []
@@ -223,7 +223,11 @@ def _symbols(o: Outcome) -> list[dict]:
     """Each symbol used in the traces once, with its meaning, for the legend above them."""
     seen: dict[str, str] = {}
     r = o.results
-    groups = [x.values for x in (*r.duties, *r.supply_modes, *r.drives, *r.supplies, *r.modes)] + [r.fluid]
+    m = o.machine
+    parts = [*r.duties, *(r.supply_mode(s.id, md.id) for md in m.modes for s in m.supplies),
+             *map(r.drive_result, (d.id for d in m.drives)), *map(r.supply_result, (s.id for s in m.supplies)),
+             *map(r.mode_result, (md.id for md in m.modes))]
+    groups = [x.values for x in parts if x is not None] + [r.fluid]
     for values in groups:
         for v in values.values():
             seen.setdefault(v.symbol, v.label)

@@ -95,6 +95,7 @@ def substitute(value: Value, system: str) -> list[Segment]:
 
 
 def trace_row(value: Value, system: str, entered: str | None = None) -> dict:
+    """One line of a calculation trace as the template shows it: formula, substitution, result, source."""
     return {
         "key": value.key, "label": value.label, "symbol": value.symbol, "formula": value.formula,
         "words": value.words, "substituted": substitute(value, system),
