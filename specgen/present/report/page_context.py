@@ -152,7 +152,7 @@ def _trace_block(anchor: str, title: str, values: dict, system: str, checks: lis
 
 def _supply_context(o: Outcome, sup, system: str, checks: list[dict], fig_n, draw: Batch) -> dict:
     m, r = o.machine, o.results
-    modes = [x for x in (r.supply_mode(sup.id, md.id) for md in m.modes) if x is not None]
+    modes = [x for x in r.supply_modes if x.supply == sup.id]  # only the modes that run this supply
     entered = supply_rows(o, sup, system)
     whole = r.supply_result(sup.id)
     traces = []
@@ -224,7 +224,7 @@ def _symbols(o: Outcome) -> list[dict]:
     seen: dict[str, str] = {}
     r = o.results
     m = o.machine
-    parts = [*r.duties, *(r.supply_mode(s.id, md.id) for md in m.modes for s in m.supplies),
+    parts = [*r.duties, *r.supply_modes,
              *map(r.drive_result, (d.id for d in m.drives)), *map(r.supply_result, (s.id for s in m.supplies)),
              *map(r.mode_result, (md.id for md in m.modes))]
     groups = [x.values for x in parts if x is not None] + [r.fluid]

@@ -193,3 +193,15 @@ def test_us_units_report(tmp_path):
     climb = o.results.duty("track_left", "climb")
     assert format_si(climb["inlet_pressure"], "pressure", "US") in page
     assert "[psi]" in page and "[lbf*in]" in page and "[gpm]" in page  # chart axes in the display units
+
+
+def test_a_supply_left_out_of_a_mode_has_no_column_for_it(tmp_path):
+    from specgen import bench
+
+    # 13 drives in 3 groups on 3 copies of the demo's supplies; mode 0 runs group 0 only, so the
+    # supplies of groups 1 and 2 have no result in mode 0 (bench.generate's docstring)
+    o = run_file(bench.write_spec(tmp_path / "g.yaml", bench.generate(example_data(), 13, 3)))
+    pairs = {(x.supply, x.mode) for x in o.results.supply_modes}
+    assert ("main_001", "mode_000") not in pairs and ("main_000", "mode_000") in pairs
+    page = report.render(o, fp=FIXED)
+    assert 'id="mode-main_000-mode_000"' in page and 'id="mode-main_001-mode_000"' not in page
