@@ -23,6 +23,22 @@ The large specs are generated into a temporary folder from the demo's own drives
 group of its six drives on up to 50 copies of its two supplies, and 50 modes that each run the
 drives of one demo mode in a tenth of the groups. They are valid specs, so check does its whole
 work on them. Exit status: 0 every target met, 1 a target missed, 2 a case could not run.
+
+Chart drawing in worker processes (present/chart_batch.py) is kept because it measured clearly
+faster. ``--charts`` adds the report on the demo and on the smaller generated spec with every
+chart drawn serially in the one process. On 2 CPUs, Python 3.11.7, load average 0.9 before:
+
+    python -m specgen.bench --repeats 3 --sizes 100,200 --copies 2 --charts
+      report demo                  1.787 s    charts serial   2.699 s   workers save 34 %
+      report 100 drives           12.467 s    charts serial  24.711 s   workers save 50 %
+
+The early helper (chart_batch.start_workers: matplotlib imported on the other core while the specs
+are checked) was also weighed against a plain pool forked for each page once matplotlib is
+imported here, in 7 round-robin fresh runs of ``specgen report`` on the demo, load average 1.4-1.8:
+helper and workers 2.21 s, per-page pool 2.65 s, serial 3.08 s; a bench run at load 2.0 gave the
+per-page pool no gain at all over serial (3.60 s against 3.46 s). The helper stays. Other busy
+processes on the machine eat the gain: under a load average of 7, both drew the demo in about 8.3 s
+against 14.3 s serially.
 """
 
 from __future__ import annotations
@@ -37,12 +53,21 @@ import sys
 import tempfile
 import time
 from dataclasses import dataclass, field
+from importlib import resources
 from pathlib import Path
 
 import yaml
 
-DEMO = Path(__file__).resolve().parent.parent / "example_specs" / "reed_harvester.yaml"
+DEMO_NAME = "reed_harvester.yaml"
 MODE_SETS = 10  # each generated mode runs the drives of every tenth group
+
+
+def demo_spec() -> Path:
+    """The demo spec: the copy the wheel carries (specgen/_data/demo/), else the checkout's example_specs/."""
+    packaged = resources.files("specgen") / "_data" / "demo" / DEMO_NAME
+    if packaged.is_file():
+        return Path(str(packaged))
+    return Path(__file__).resolve().parent.parent / "example_specs" / DEMO_NAME
 
 
 def _demo_data(demo: Path) -> dict:
@@ -180,12 +205,16 @@ def _imports_plotting(demo: Path, env: dict) -> str:
 
 BASE_CHECK = "import yaml, jsonschema, pint"
 BASE_REPORT = "matplotlib.pyplot + 1 SVG"
+# specgen report with every chart drawn in this one process (chart_batch finds no fork to use)
+_SERIAL_CHARTS = ("import sys; from specgen.present import chart_batch; chart_batch.can_fork = lambda: False; "
+                  "from specgen.cli import main; sys.exit(main(sys.argv[1:]))")
+SERIAL = ", charts serial"
 _FIGURE = ("import sys, matplotlib.pyplot as plt; fig, ax = plt.subplots(); ax.plot([0, 1, 2], [0, 1, 4]); "
            "fig.savefig(sys.argv[1], format='svg')")
 
 
 def build_cases(work: Path, demo: Path, sizes: tuple[int, int], n_modes: int, copies: int,
-                env: dict, with_report: bool = True) -> tuple[dict[str, Case], list[str]]:
+                env: dict, with_report: bool = True, charts: bool = False) -> tuple[dict[str, Case], list[str]]:
     """Write the specs into ``work`` and return the cases by name, and notes on any left out."""
     py, notes = sys.executable, []
     data = _demo_data(demo)
@@ -212,6 +241,11 @@ def build_cases(work: Path, demo: Path, sizes: tuple[int, int], n_modes: int, co
         report = [py, "-m", "specgen", "report"]
         cases += [Case(BASE_REPORT, [py, "-c", _FIGURE, str(work / "baseline.svg")]),
                   Case("report demo", report + [str(demo), "-o", str(work / "report_1")])]
+        if charts:  # the chart workers against drawing every chart in the one process
+            serial = [py, "-c", _SERIAL_CHARTS, "report"]
+            cases += [Case("report demo" + SERIAL, serial + [str(demo), "-o", str(work / "report_1s")]),
+                      Case(f"report {sizes[0]} drives", report + [str(small), "-o", str(work / "report_n")]),
+                      Case(f"report {sizes[0]} drives" + SERIAL, serial + [str(small), "-o", str(work / "report_ns")])]
         if "SPEC [SPEC" not in report_help:
             notes.append(f"report on {copies} specs skipped: report takes one spec in this version")
         else:
@@ -263,9 +297,12 @@ def main(argv: list[str] | None = None) -> int:
     ap.add_argument("--sizes", default="100,1000", help="drive counts of the two generated specs [100,1000]")
     ap.add_argument("--modes", type=int, default=50, help="modes in the generated specs [50]")
     ap.add_argument("--copies", type=int, default=50, help="copies of the demo spec checked in one call [50]")
-    ap.add_argument("--demo", type=Path, default=DEMO, help="the spec the copies and generated specs are made from")
+    ap.add_argument("--demo", type=Path, help="the spec the copies and generated specs are made from [the packaged demo]")
     ap.add_argument("--no-report", action="store_true", help="leave out the report cases (the slowest)")
+    ap.add_argument("--charts", action="store_true",
+                    help="also time report with every chart drawn serially, on the demo and the smaller generated spec")
     args = ap.parse_args(argv)
+    args.demo = args.demo or demo_spec()
     repeats = args.repeats or (3 if args.quick else 7)
     sizes = tuple(int(s) for s in args.sizes.split(","))
     if len(sizes) != 2 or not 0 < sizes[0] < sizes[1] or repeats < 1 or args.modes < 1 or args.copies < 1:
@@ -273,7 +310,8 @@ def main(argv: list[str] | None = None) -> int:
     load_before = os.getloadavg()[0]
     with tempfile.TemporaryDirectory(prefix="specgen-bench-") as tmp:
         env = _env(Path(tmp))
-        cases, notes = build_cases(Path(tmp), args.demo, sizes, args.modes, args.copies, env, not args.no_report)
+        cases, notes = build_cases(Path(tmp), args.demo, sizes, args.modes, args.copies, env, not args.no_report,
+                                   args.charts)
         try:
             measure(cases, repeats, env)
             plotting = _imports_plotting(args.demo, env)
@@ -298,6 +336,10 @@ def main(argv: list[str] | None = None) -> int:
     print(f"  {'MISS' if plotting else 'ok  '}  modules check loads for plotting or templates: "
           f"{plotting or 'none'} (target none)")
     for name, case in cases.items():
+        if name.endswith(SERIAL):
+            parallel = cases[name.removesuffix(SERIAL)].median
+            print(f"  info  {name.removesuffix(SERIAL)}: workers save {1 - parallel / case.median:.0%} of the serial "
+                  f"time ({parallel:.2f} s against {case.median:.2f} s; no target)")
         if case.once and "report demo" in cases:
             print(f"  info  {name} / report demo: {case.median / cases['report demo'].median:.2f} (no target)")
     print("all targets met" if not missed else f"{missed} target(s) missed")

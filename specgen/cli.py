@@ -1,7 +1,9 @@
-"""Command line: parse arguments, call the pipeline, decide the exit status in one place.
+"""Command line: parse arguments, call the pipeline, return the exit status.
 
-Exit status: 0 all checks pass (warnings allowed unless --strict); 1 a check fails (or warns
-with --strict); 2 the input is invalid or a file cannot be read or written; 3 an internal error.
+The statuses and the rules that give them are in specgen/exits.py: 0 all checks pass (warnings
+allowed unless --strict); 1 a check fails (or warns with --strict), a required review is missing,
+or a diff shows a regression; 2 the input is invalid or a file cannot be read or written; 3 an
+internal error. Dates given with --date follow specgen/dates.py.
 """
 
 from __future__ import annotations
@@ -11,12 +13,10 @@ import os
 import sys
 from pathlib import Path
 
-from specgen import __version__
+from specgen import __version__, exits
 from specgen.errors import Location, Problem, SpecError
 from specgen.heap import few_full_collections
 from specgen.safe_text import clip, escape
-
-EXIT_OK, EXIT_CHECKS, EXIT_INPUT = 0, 1, 2
 
 
 def spec_paths(args: list[str]) -> list[str]:
@@ -81,7 +81,7 @@ def _review_parser(sub) -> None:
     r.add_argument("--role", required=True, metavar="ROLE", help="reviewer's role, e.g. 'checking engineer'")
     r.add_argument("--verdict", required=True, choices=VERDICTS)
     r.add_argument("--remarks", default="", metavar="TEXT")
-    r.add_argument("--date", metavar="YYYY-MM-DD", help="review date [SOURCE_DATE_EPOCH, else today]")
+    r.add_argument("--date", metavar="YYYY-MM-DD", help="review date, YYYY-MM-DD or YYYYMMDD [SOURCE_DATE_EPOCH, else today]")
     r.add_argument("--allow-outside-files", action="store_true",
                    help="let the spec name files (a sizing parts file) outside its own folder tree")
 
@@ -92,7 +92,8 @@ def _report_parser(sub) -> None:
     r.add_argument("-o", "--output", metavar="OUTDIR", required=True,
                    help="folder for the report (index.html; several specs: one subfolder each and an index)")
     r.add_argument("--pdf", action="store_true", help="also write a paged PDF, report.pdf (needs the 'pdf' extra)")
-    r.add_argument("--date", metavar="YYYY-MM-DD", help="date printed on the report [SOURCE_DATE_EPOCH, else none]")
+    r.add_argument("--date", metavar="YYYY-MM-DD",
+                   help="date printed on the report, YYYY-MM-DD or YYYYMMDD [SOURCE_DATE_EPOCH, else none]")
     r.add_argument("--strict", action="store_true", help="count warnings as failures")
     r.add_argument("--allow-outside-files", action="store_true",
                    help="let a spec name files (a sizing parts file) outside its own folder tree")
@@ -121,13 +122,6 @@ def _inputs(paths: list[str], sources) -> list[Path]:
         if isinstance(name, str):
             out.append(resolve_inside(source.name, name, allow_outside=True)[0])
     return out
-
-
-def verdict_status(outcomes, strict: bool) -> int:
-    worst = {o.results.verdict for o in outcomes}
-    if "fail" in worst or (strict and "warn" in worst):
-        return EXIT_CHECKS
-    return EXIT_OK
 
 
 def _evaluate_all(paths: list[str], allow_outside_files: bool = False):
@@ -165,12 +159,12 @@ def cmd_check(args) -> int:
 
         _emit("\n".join(text.render(o, quiet=args.quiet, review=r) for o, r in zip(outcomes, reviews)), args.output,
               inputs)
-    code = verdict_status(outcomes, args.strict)
+    code = exits.outcomes_status(outcomes, args.strict)
     if args.require_review:
         for o, r in zip(outcomes, reviews):
             if not r.covered:
                 print(f"review required: {escape(o.source.name)}: {escape(r.text)}", file=sys.stderr)
-                code = max(code, EXIT_CHECKS)
+            code = exits.review_status(code, r.covered)
     return code
 
 
@@ -191,7 +185,7 @@ def cmd_diff(args) -> int:
     files = [a for a in (args.old, args.new) if split_revision(a) is None]
     d = compare(*sides)
     _emit(render(d, args.format), args.output, _inputs(files, [s.source for s in sides]))
-    return d.exit_status(args.fail_on)
+    return exits.diff_status(d, args.fail_on)
 
 
 def cmd_review(args) -> int:
@@ -203,23 +197,21 @@ def cmd_review(args) -> int:
                       args.remarks, args.date)
     print(escape(f"recorded in {reviews_path(args.spec)}: {r.verdict} by {r.who} on {r.date} "
                  f"for fingerprint {r.short} ({o.machine.title} rev {o.machine.revision})"))
-    return EXIT_OK
+    return exits.OK
 
 
 def cmd_report(args) -> int:
+    from specgen.dates import given_date
     from specgen.present import report
     from specgen.present.text import headline
 
-    date = report.report_date(args.date, os.environ.get("SOURCE_DATE_EPOCH"))
+    date = given_date(args.date, os.environ)
     report.start_drawing()  # chart workers import matplotlib while the specs are checked; write stops them
     paths = spec_paths(args.specs)
     outcomes, problems = _evaluate_all(paths, args.allow_outside_files)
     if problems:
         raise SpecError(problems)
     _refuse_inputs_in_report(args.output, _inputs(paths, [o.source for o in outcomes]))
-    from specgen.output import refuse_foreign_files
-
-    refuse_foreign_files(args.output, ["index.html", "report.pdf"])  # a site's own page is never replaced
     from specgen.review import reviews_for_report
 
     written = report.write(outcomes, args.output, date=date, pdf=args.pdf,
@@ -230,7 +222,7 @@ def cmd_report(args) -> int:
         print(headline(o))
     for path in written.files:
         print(f"wrote {escape(path)}")
-    return verdict_status(outcomes, args.strict)
+    return exits.outcomes_status(outcomes, args.strict)
 
 
 def _refuse_inputs_in_report(outdir: str, inputs: list[Path]) -> None:
@@ -250,7 +242,7 @@ def cmd_schema(args) -> int:
     from specgen.intake.schema import schema
 
     _emit(json.dumps(schema(), indent=2) + "\n", args.output)
-    return EXIT_OK
+    return exits.OK
 
 
 def cmd_init(args) -> int:
@@ -261,7 +253,7 @@ def cmd_init(args) -> int:
         raise SpecError([Problem(Location(args.path), "", "already exists; use --force to overwrite it")])
     write_atomic(args.path, STARTER)
     print(f"wrote {escape(args.path)}")
-    return EXIT_OK
+    return exits.OK
 
 
 COMMANDS = {"check": cmd_check, "schema": cmd_schema, "init": cmd_init, "diff": cmd_diff, "review": cmd_review,
@@ -273,24 +265,24 @@ def main(argv: list[str] | None = None) -> int:
     args = ap.parse_args(argv)
     if not args.command:
         ap.print_help()
-        return EXIT_INPUT
+        return exits.BAD_INPUT
     try:
         return COMMANDS[args.command](args)
     except SpecError as exc:
         for p in exc.problems:
             print(f"error: {p}", file=sys.stderr)
-        return EXIT_INPUT
+        return exits.BAD_INPUT
     except OSError as exc:
         print(f"error: {escape(exc.filename or '')}: {escape(exc.strerror or exc)}", file=sys.stderr)
-        return EXIT_INPUT
+        return exits.BAD_INPUT
     except KeyboardInterrupt:
-        return 130
+        return exits.INTERRUPTED
     except Exception as exc:  # a bug in specgen: say so in one line, keep the traceback for debugging
         if os.environ.get("SPECGEN_DEBUG"):
             raise
         print(f"internal error: {type(exc).__name__}: {clip(escape(exc))} (set SPECGEN_DEBUG=1 for details)",
               file=sys.stderr)
-        return 3
+        return exits.INTERNAL
 
 
 if __name__ == "__main__":

@@ -36,11 +36,11 @@ import hashlib
 import json
 import os
 from dataclasses import asdict, dataclass
-from datetime import date, datetime, timezone
 from pathlib import Path
 
 import yaml
 
+from specgen.dates import date_or_today
 from specgen.errors import Location, Problem, SpecError
 from specgen.output import write_atomic
 from specgen.intake.content import normalised
@@ -116,19 +116,8 @@ def spec_fingerprint(source: Source) -> str:
 
 
 def review_date(given: str | None = None, environ=os.environ) -> str:
-    """The date a review is recorded under: ``given`` (ISO date), else SOURCE_DATE_EPOCH (UTC), else today."""
-    if given:
-        try:
-            return date.fromisoformat(given).isoformat()
-        except ValueError:
-            raise SpecError([Problem(Location("--date"), "", f"'{given}' is not a date such as 2025-03-14")]) from None
-    epoch = environ.get("SOURCE_DATE_EPOCH")
-    if epoch:
-        try:
-            return datetime.fromtimestamp(int(epoch), tz=timezone.utc).date().isoformat()
-        except (ValueError, OverflowError, OSError):
-            raise SpecError([Problem(Location("SOURCE_DATE_EPOCH"), "", f"'{epoch}' is not a count of seconds")]) from None
-    return date.today().isoformat()
+    """The date a review is recorded under: ``given`` (specgen/dates.py), else SOURCE_DATE_EPOCH (UTC), else today."""
+    return date_or_today(given, environ)
 
 
 def _parse(source: Source) -> list[Review]:

@@ -82,3 +82,20 @@ def test_bench_exits_2_when_a_case_cannot_run(tmp_path, capsys):
     code = bench.main(["--repeats", "1", "--sizes", "2,4", "--modes", "1", "--copies", "1", "--no-report",
                        "--demo", str(demo)])
     assert code == 2 and "exit 2" in capsys.readouterr().err
+
+
+def test_demo_spec_is_found_without_a_checkout_path(tmp_path):
+    demo = bench.demo_spec()
+    assert demo.is_file() and demo.name == "reed_harvester.yaml"
+    assert demo.read_bytes() == EXAMPLE.read_bytes()  # the wheel's copy is the example spec itself
+
+
+def test_charts_option_adds_serial_report_cases(tmp_path):
+    env = bench._env(tmp_path)
+    cases, _ = bench.build_cases(tmp_path, EXAMPLE, (2, 4), 1, 1, env, with_report=True, charts=True)
+    serial = [c for name, c in cases.items() if name.endswith(bench.SERIAL)]
+    assert [c.name for c in serial] == ["report demo" + bench.SERIAL, "report 2 drives" + bench.SERIAL]
+    assert all(c.argv[1] == "-c" and "can_fork = lambda: False" in c.argv[2] for c in serial)
+    (tmp_path / "plain").mkdir()
+    plain, _ = bench.build_cases(tmp_path / "plain", EXAMPLE, (2, 4), 1, 1, env, with_report=True)
+    assert not any(name.endswith(bench.SERIAL) for name in plain)

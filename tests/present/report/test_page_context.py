@@ -1,0 +1,207 @@
+"""The report page's content: every value from the Results in its trace, as entered beside as used,
+checklist, summary, cautions, assumed values, escaping and sanitising, structure, sign-off, units."""
+
+from __future__ import annotations
+
+import html as htmllib
+import re
+
+from helpers import example_data, minimal, write_spec
+from page_html import FIXED, Outline, block, esc
+from specgen.cautions import CAUTIONS
+from specgen.pipeline import run_file
+from specgen.present import report
+from specgen.units import format_si
+
+
+def test_every_duty_and_supply_value_is_shown_in_its_trace(example):
+    o, page = example
+    system = o.machine.display_units
+    for r in o.results.duties:
+        text = block(page, f"duty-{r.drive}-{r.duty}")
+        for v in r.values.values():
+            if v.kind != "ratio":
+                assert format_si(v.value, v.kind, system) in text, (r.drive, r.duty, v.key)
+    for r in o.results.supply_modes:
+        text = block(page, f"mode-{r.supply}-{r.mode}")
+        for v in r.values.values():
+            assert format_si(v.value, v.kind, system) in text, (r.supply, r.mode, v.key)
+
+def test_hand_checked_numbers_appear(tmp_path):
+    o = run_file(write_spec(tmp_path, minimal()))
+    page = report.render(o, fp=FIXED)
+    lift = block(page, "duty-hoist-lift")
+    # dp = 2*pi*T/(Vg*eta_hm) = 2*pi*286.5/(100e-6*0.9) = 200.0 bar; p_in = dp + 5 bar = 205.0 bar
+    # q = Vg*n/eta_v = 100 cm^3 * 500 rpm / 0.95 = 52.63 L/min (motor relations, fluid-power textbook;
+    # hand calculation)
+    for text in ("200.0 bar", "205.0 bar", "52.63 L/min"):
+        assert text in lift, text
+    assert format_si(o.results.duty("hoist", "lift")["inlet_pressure"], "pressure", "SI") == "205.0 bar"
+    # q_p = Vp*n*eta_v = 40 cm^3 * 1500 rpm * 0.95 = 57.00 L/min (pump delivery relation; hand calculation)
+    assert "57.00 L/min" in block(page, "mode-main-work")
+    # the substitution shows the values used, with units, in place of the symbols
+    assert "dp = 2*pi*(286.5 N*m) / ((100.0 cm^3/rev) * 0.9000)" in htmllib.unescape(lift)
+
+def test_spec_values_are_shown_as_entered_and_as_used(example):
+    o, page = example
+    drive = block(page, "drive-track_left")
+    data = example_data()["drives"]["track_left"]
+    for raw in (data["motor"]["displacement"], data["motor"]["rating"]["peak_pressure"],
+                data["motor"]["rating"]["max_speed"], data["case_pressure"]):
+        assert f">{raw}<" in drive, raw
+    d = o.machine.drive("track_left")
+    assert f">{format_si(d.motor.displacement_max, 'displacement', 'SI')}<" in drive
+    assert f">{format_si(d.motor.rating.peak_pressure, 'pressure', 'SI')}<" in drive
+    supply = block(page, "supply-aux")
+    assert ">90 %<" in supply and ">90.00 %<" in supply  # written as a percentage, used as 0.90
+
+def test_every_check_is_in_the_checklist_with_anchor_and_where(example):
+    o, page = example
+    assert len(o.results.checks) > 50
+    for n, c in enumerate(o.results.checks, start=1):
+        row = block(page, f"check-{n}")
+        assert c.id in row and esc(c.where) in row and esc(c.message) in row
+        assert {"pass": "PASS", "warn": "WARN", "fail": "FAIL"}[c.status] in row
+
+def test_summary_lists_warnings_and_failures_first_with_links(example):
+    o, page = example
+    summary = page[page.index('id="summary"'):page.index('id="cautions"')]
+    bad = [n for n, c in enumerate(o.results.checks, start=1) if c.status != "pass"]
+    assert bad and o.results.verdict == "warn"
+    for n in bad:
+        assert f'href="#check-{n}"' in summary
+    assert "Overall: WARN" in summary
+    c = o.results.counts()
+    assert f'<td class="num">{c["pass"]}</td>' in summary
+
+def test_cautions_and_design_aid_always_present(example, tmp_path):
+    _, page = example
+    for title, text in CAUTIONS:
+        assert esc(title) in page and esc(text) in page
+    assert "design aid" in page
+    failing = minimal()
+    failing["drives"]["hoist"]["duty_points"]["lift"]["torque"] = "400 N*m"
+    failed = report.render(run_file(write_spec(tmp_path, failing)), fp=FIXED)
+    assert "Overall: FAIL" in failed
+    for title, text in CAUTIONS:
+        assert esc(text) in failed
+
+def test_assumed_values_are_marked(example):
+    o, page = example
+    listed = [".".join(i.where) for i in o.results.assumed()]
+    section = block(page, "assumed")
+    # the typical 100 degC viscosity of the demo's ISO VG grade is an assumption like any default
+    assert "fluid.viscosity_100c" in listed
+    for where in listed:
+        assert where in section
+    # the bale winch motor efficiencies are defaults: its traces say so beside the values
+    hoist = block(page, "duty-bale_winch-hoist")
+    assert hoist.count('class="assumed"') >= 3
+    # a duty point whose motor data is all given carries no mark
+    assert 'class="assumed"' not in block(page, "duty-track_left-climb")
+
+HOSTILE = "<script>alert(1)</script>"
+
+def test_titles_with_script_are_escaped_everywhere(tmp_path):
+    d = minimal()
+    d["machine"]["title"] = f"Rig {HOSTILE} \"quoted\" </style>"
+    d["drives"]["hoist"]["title"] = f"Hoist {HOSTILE}"
+    d["supplies"]["main"]["title"] = f"Pump {HOSTILE}"
+    d["machine"]["signoff"] = {"prepared_by": HOSTILE}
+    page = report.render(run_file(write_spec(tmp_path, d)), fp=FIXED)
+    assert "<script" not in page.lower()
+    assert "&lt;script&gt;alert(1)&lt;/script&gt;" in page
+    # only the page's own stylesheet and each chart's own style element end a style; the title's is text
+    assert page.lower().count("</style") == 1 + page.count("<svg") and "&lt;/style&gt;" in page
+    # the page footer string in the print stylesheet is hex-escaped CSS, not the raw text
+    footer = re.search(r"@bottom-left \{ content: (\"[^\"]*\")", page).group(1)
+    assert "<" not in footer and "\\3c " in footer
+
+def test_markdown_description_is_rendered_and_sanitised(tmp_path):
+    d = minimal()
+    d["machine"]["description"] = (
+        "# Overview\n\nA **bold** claim and a [safe link](https://example.org/x).\n\n"
+        "<script>alert(1)</script> <img src=x onerror=alert(2)> [bad](javascript:alert(3))\n\n"
+        '<a href="javascript:alert(4)" onclick="alert(5)">raw</a> <iframe src="https://example.org"></iframe>\n'
+        '<div style="position:fixed">styled</div>\n')
+    page = report.render(run_file(write_spec(tmp_path, d)), fp=FIXED)
+    desc = page[page.index('id="description"'):page.index('id="margins"')]
+    assert "<strong>bold</strong>" in desc and 'href="https://example.org/x"' in desc
+    assert "<h3>Overview</h3>" in desc  # its h1 sits under the report's h2
+    for bad in ("<script", "javascript:", "onerror", "onclick", "<img", "<iframe", "style=", "<div"):
+        assert bad not in desc.lower(), bad
+
+def test_accessible_structure(example):
+    o, page = example
+    parsed = Outline()
+    parsed.feed(page)
+    assert parsed.headings[0] == 1 and parsed.headings.count(1) == 1
+    for prev, cur in zip(parsed.headings, parsed.headings[1:]):
+        assert cur <= prev + 1, parsed.headings
+    assert parsed.ths and all(s in ("col", "row") for s in parsed.ths)
+    dupes = {i for i in parsed.ids if parsed.ids.count(i) > 1}
+    assert not dupes  # ids stay unique across all the inline SVGs
+    # torque and speed per drive, flow and power per supply, and the margin overview
+    rows = len(report.margin_rows(o))
+    margin_parts = -(-rows // report.MARGIN_ROWS_PER_CHART)
+    assert len(parsed.figures) == 2 * len(o.machine.drives) + 2 * len(o.machine.supplies) + margin_parts
+    assert all(f == {"svg": 1, "caption": 1, "alt": 1} for f in parsed.figures)
+    for m in re.finditer(r'aria-labelledby="(fig\d+-alt)"', page):
+        assert f'id="{m.group(1)}"' in page
+
+def test_self_contained_no_script_no_network(example):
+    _, page = example
+    assert "<script" not in page
+    assert not re.search(r"""(src|href)=["']?(https?:)?//""", page)
+    assert "default-src 'none'" in page
+    assert "@import" not in page and "url(http" not in page
+
+def test_checklist_manual_items_and_signoff(example):
+    _, page = example
+    checklist = page[page.index('id="checklist"'):page.index('id="signoff"')]
+    assert checklist.count('class="tickbox"') == len(report.MANUAL_ITEMS)
+    for item in ("relief setting", "brake", "Guarding", "Emergency stop", "ISO 4406", "ISO 4413"):
+        assert item in checklist
+    assert "main 280.0 bar, aux 190.0 bar" in checklist  # hose ratings against each relief setting
+    assert "bale_winch lower" in checklist  # the overrunning duty named for the load-holding item
+    signoff = page[page.index('id="signoff"'):]
+    assert "A. Designer" in signoff
+    assert [r for r in ("Prepared by", "Checked by", "Approved by") if r in signoff] == \
+        ["Prepared by", "Checked by", "Approved by"]
+    assert signoff.count('<td class="line"></td>') == 8  # signatures and dates left for ink
+    assert 'id="reviews"' not in page  # nothing recorded: the block stays empty
+
+def test_recorded_reviews_block(tmp_path):
+    o = run_file(write_spec(tmp_path, minimal()))
+    page = report.render(o, fp=FIXED, reviews=[{
+        "name": "B. Checker", "role": "checking engineer", "date": "2025-03-14", "verdict": "approved",
+        "fingerprint": "ab" * 32, "matches_current": True, "remarks": HOSTILE}])
+    reviews = page[page.index('id="reviews"'):page.index('id="signoff"')]
+    assert "B. Checker" in reviews and "abababababab" in reviews and "&lt;script&gt;" in reviews
+
+def test_page_size_from_the_spec(tmp_path):
+    d = minimal()
+    assert "size: A4;" in report.render(run_file(write_spec(tmp_path, d)), fp=FIXED)
+    d["machine"]["page_size"] = "Letter"
+    assert "size: Letter;" in report.render(run_file(write_spec(tmp_path, d)), fp=FIXED)
+
+def test_us_units_report(tmp_path):
+    d = example_data()
+    d["machine"]["display_units"] = "US"
+    o = run_file(write_spec(tmp_path, d))
+    page = report.render(o, fp=FIXED)
+    climb = o.results.duty("track_left", "climb")
+    assert format_si(climb["inlet_pressure"], "pressure", "US") in page
+    assert "[psi]" in page and "[lbf*in]" in page and "[gpm]" in page  # chart axes in the display units
+
+
+def test_a_supply_left_out_of_a_mode_has_no_column_for_it(tmp_path):
+    from specgen import bench
+
+    # 13 drives in 3 groups on 3 copies of the demo's supplies; mode 0 runs group 0 only, so the
+    # supplies of groups 1 and 2 have no result in mode 0 (bench.generate's docstring)
+    o = run_file(bench.write_spec(tmp_path / "g.yaml", bench.generate(example_data(), 13, 3)))
+    pairs = {(x.supply, x.mode) for x in o.results.supply_modes}
+    assert ("main_001", "mode_000") not in pairs and ("main_000", "mode_000") in pairs
+    page = report.render(o, fp=FIXED)
+    assert 'id="mode-main_000-mode_000"' in page and 'id="mode-main_001-mode_000"' not in page
