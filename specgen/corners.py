@@ -8,9 +8,10 @@ line losses and every check computed from the fluid result with no rule of its o
 Worst corner: each check is matched across the nominal point and every corner by where it applies
 (check id, drive, duty point, supply, mode and, for a repeat at one place, its ordinal). The check
 reported is the one with the most severe status; on a tie the nominal point wins, then the corner
-first in the spec. A corner limited to some modes competes only in checks of those modes and in
-checks that belong to no mode. A check a corner raises that the nominal point does not have is
-reported too, when it warns or fails (safety output is never dropped).
+first in the spec. A corner limited to some modes competes only in checks of those modes, of the
+duty points and drives that run in them, and of the machine or a supply as a whole. A check a
+corner raises that the nominal point does not have is reported too, when it warns or fails
+(safety output is never dropped).
 
 Engine speed: a supply whose pump shaft speed is given as well as its prime mover speed turns its
 pump at the moved prime mover speed times its drive ratio at a corner that moves the engine speed.
@@ -87,10 +88,23 @@ def run_corners(machine: Machine, nominal: Results, corners: tuple[Corner, ...],
         moved = apply(machine, corner)
         checks = check(moved, resolve(moved)).checks
         if corner.modes:
-            checks = tuple(c for c in checks if c.mode is None or c.mode in corner.modes)
+            running = {pair for m in machine.modes if m.id in corner.modes for pair in m.running}
+            drives = {drive for drive, _ in running}
+            checks = tuple(c for c in checks if _in_modes(c, corner.modes, running, drives))
         found.append(CornerResult(corner.id, corner.title, corner.modes, corner.overrides,
                                   tuple(replace(c, corner=corner.id) for c in checks), corner.assumed, corner.basis))
     return replace(nominal, checks=worst(nominal.checks, [r.checks for r in found]), corners=tuple(found))
+
+
+def _in_modes(c: Check, modes: tuple[str, ...], running: set, drives: set) -> bool:
+    """Does check ``c`` belong to one of ``modes``: its own mode, the duty point (``running``: the
+    (drive, duty) pairs of those modes) or drive it names running in one of them, or (naming none
+    of these) the machine or a supply as a whole."""
+    if c.mode is not None:
+        return c.mode in modes
+    if c.drive is None:
+        return True
+    return (c.drive, c.duty) in running if c.duty is not None else c.drive in drives
 
 
 def worst(nominal: tuple[Check, ...], at_corners: list[tuple[Check, ...]]) -> tuple[Check, ...]:

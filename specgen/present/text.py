@@ -52,7 +52,7 @@ def corner_lines(o: Outcome) -> list[str]:
     out = ["", "Operating corners (every check above is shown at its worst; the nominal point wins a tie)"]
     for r in o.results.corners:
         moves = "; ".join(f"{k} {v}" for k, v in r.overrides)
-        modes = f" in modes {', '.join(r.modes)}" if r.modes else ""
+        modes = f" (modes {', '.join(r.modes)})" if r.modes else ""
         note = f" ({r.basis})" if r.assumed else ""
         out.append(escape(f"  {r.id}: {r.title}{modes}: {moves}{note} -> {r.verdict}"))
     return out
