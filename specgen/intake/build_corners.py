@@ -157,7 +157,7 @@ def _target(b: Builder, machine: Machine, path: tuple, value, how: str, here: tu
         if part in _FIXED:
             b.fail(here, f"'{spec}' cannot be moved by a corner: {_FIXED[part]}")
             return None
-    info = field_at(path, value)
+    info = field_at(path, value if how == "set" else "1 unit")  # a factor says nothing of the field's shape
     if info is None or (info.kind is None and not info.quantity):
         b.fail(here, f"'{spec}' is not a quantity of the spec a corner can move (e.g. fluid.temperature, "
                      f"supplies.<id>.relief_setting, or a group: {', '.join(GROUPS)})")
