@@ -166,6 +166,9 @@ def _target(b: Builder, machine: Machine, path: tuple, value, how: str, here: tu
     if problem:
         b.fail(here, problem)
         return None
+    base = found.value if isinstance(found, Ratio) else found
+    if isinstance(base, float) and not math.isfinite(base):
+        return None  # the nominal value was refused, and is reported at its own field
     kind = info.kind or "ratio"
     is_ratio = kind == "ratio"
     if how == "set":
@@ -184,7 +187,6 @@ def _target(b: Builder, machine: Machine, path: tuple, value, how: str, here: tu
         if amount is None:
             b.fail(here, f"{value!r} is not a factor (e.g. 1.05) or a signed percentage (e.g. '+5 %', '-3 %')")
             return None
-        base = found.value if isinstance(found, Ratio) else found
         result = base + amount if how == "points" else base * amount
     problem = _out_of_range(spec, result, is_ratio, kind)
     if problem:
