@@ -26,9 +26,8 @@ import math
 import re
 from dataclasses import dataclass
 
-from specgen import units
 from specgen.intake.model import Machine, Ratio
-from specgen.intake.quantities import MIN_EFFICIENCY, Builder
+from specgen.intake.quantities import MIN_EFFICIENCY, SI_RANGE, Builder
 from specgen.intake.schema import field_at
 
 # Typical corners (from memory, common practice; maker's data and site data always win).
@@ -188,7 +187,7 @@ def _target(b: Builder, machine: Machine, path: tuple, value, how: str, here: tu
             b.fail(here, f"{value!r} is not a factor (e.g. 1.05) or a signed percentage (e.g. '+5 %', '-3 %')")
             return None
         result = base + amount if how == "points" else base * amount
-    problem = _out_of_range(spec, result, is_ratio, kind)
+    problem = None if result == base == 0 else _out_of_range(spec, result, is_ratio, kind)
     if problem:
         b.fail(here, problem)
         return None
@@ -212,8 +211,9 @@ def _out_of_range(spec: str, result: float, is_ratio: bool, kind: str) -> str | 
         return f"'{spec}' would become {result:.4g} at this corner; an efficiency lies in (0, 1]"
     if is_ratio and "efficiency" not in spec and not 0.0 <= result < 1.0:
         return f"'{spec}' would become {result:.4g} at this corner; it must lie in [0, 1)"
-    if not is_ratio and kind != "temperature" and not result > 0:
-        return f"'{spec}' would become {result:.4g} at this corner; it must stay above zero"
+    if not is_ratio and kind != "temperature" and not SI_RANGE[0] <= result <= SI_RANGE[1]:
+        return (f"'{spec}' would become {result:.4g} (SI) at this corner; it must stay above zero and within "
+                f"the range specgen computes with ({SI_RANGE[0]:g} to {SI_RANGE[1]:g})")
     return None
 
 
