@@ -150,26 +150,6 @@ def test_a_corner_limited_to_modes_judges_only_what_runs_in_them(tmp_path):
     assert all(c.mode in (None, "idle") for c in cold.checks)
 
 
-@pytest.mark.parametrize("override, expected", [
-    ({"set": {"fluid.temprature": "-20 degC"}}, "'fluid.temprature' is not a quantity"),
-    ({"set": {"fluid.temperature": "250 bar"}}, "corners.cold.set.fluid.temperature"),
-    ({"set": {"supplies.spare.relief_setting": "260 bar"}}, "names 'spare', which is not defined"),
-    ({"scale": {"motors.volumetric_efficiency": "-96 %"}}, "an efficiency lies in (0, 1]"),
-    ({"scale": {"fluid.temperature": 1.1}}, "a temperature cannot be scaled"),
-    ({"scale": {"supplies.main.relief_setting": "a lot"}}, "not a factor"),
-    ({"set": {"drives.hoist.duty_points.lift.torque": "300 N*m"}}, "duty points are the design's own cases"),
-    ({"modes": ["night"], "set": {"fluid.temperature": "-20 degC"}}, "names mode 'night'"),
-])
-def test_a_bad_override_is_refused_with_exit_2_and_a_located_line(tmp_path, override, expected):
-    path = write_spec(tmp_path, _spec(cold=override))
-    code, out, err = run_cli("check", path)
-    assert code == 2 and out == ""
-    lines = [x for x in err.splitlines() if x.strip()]
-    located = [x for x in lines if f"{path}:" in x and "corners.cold" in x]
-    assert len(located) == 1 and expected in located[0], err
-    assert "Traceback" not in err
-
-
 def test_typical_corners_switch_on_in_one_line():
     d = _spec()
     d["typical_corners"] = True
