@@ -113,7 +113,8 @@ class ValueChange:
 class CheckChange:
     """A check whose status or value changed, or that exists on one side only.
 
-    ``change``: worse, better, moved (same status, value moved), added or removed.
+    ``change``: worse, better, moved (same status, value moved or found at another operating
+    corner), added or removed.
     """
 
     id: str
@@ -127,6 +128,8 @@ class CheckChange:
     new_value: float | None
     limit: float | None
     message: str
+    old_corner: str | None = None  # the operating corner the check was reported at (None: nominal)
+    new_corner: str | None = None
 
     @property
     def where_text(self) -> str:
@@ -290,12 +293,18 @@ def _check_keys(outcome: Outcome) -> dict[tuple, object]:
 
 def _record(c_old, c_new, change: str) -> CheckChange:
     ref = c_new or c_old
+    corners = (c_old.corner if c_old else None, c_new.corner if c_new else None)
+    message = ref.message
+    if c_old and c_new and corners[0] != corners[1]:  # the worst case is found at another corner: say so
+        old, new = (f"corner {k}" if k else "the nominal point" for k in corners)
+        message = f"Worst at {new} (was {old}): {message}"
     return CheckChange(
         id=ref.id, title=ref.title,
         where={"drive": ref.drive, "duty": ref.duty, "supply": ref.supply, "mode": ref.mode},
         change=change, old_status=c_old.status if c_old else None, new_status=c_new.status if c_new else None,
         kind=ref.kind, old_value=c_old.value if c_old else None, new_value=c_new.value if c_new else None,
-        limit=ref.limit, message=ref.message,
+        limit=ref.limit, message=message,
+        old_corner=c_old.corner if c_old else None, new_corner=c_new.corner if c_new else None,
     )
 
 
@@ -315,6 +324,8 @@ def diff_checks(old: Outcome, new: Outcome) -> tuple[list[CheckChange], list[Che
             changes.append(_record(None, cn, "added"))
         elif RANK[cn.status] != RANK[co.status]:
             changes.append(_record(co, cn, "worse" if RANK[cn.status] > RANK[co.status] else "better"))
+        elif co.corner != cn.corner:  # the same status found at another corner: the worst case moved
+            changes.append(_record(co, cn, "moved"))
         elif (co.value is None) != (cn.value is None) or (
                 co.value is not None and not _close(co.value, cn.value, RESULT_TOLERANCE)):
             changes.append(_record(co, cn, "moved"))

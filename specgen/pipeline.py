@@ -1,4 +1,5 @@
-"""The build as a visible pipeline: read -> validate and build -> resolve -> check. Rendering comes after."""
+"""The build as a visible pipeline: read -> validate and build -> resolve -> check, at the nominal point
+and at each operating corner (specgen/corners.py). Rendering comes after."""
 
 from __future__ import annotations
 
@@ -10,7 +11,8 @@ from specgen.checks import run_checks
 from specgen.heap import few_full_collections
 from specgen.intake.model import Machine
 from specgen.intake.read import Source, load_file
-from specgen.intake.validate import build
+from specgen.corners import run_corners
+from specgen.intake.validate import build_with_corners
 from specgen.resolve.load import decide_directions
 from specgen.resolve.machine import resolve
 from specgen.results import Results
@@ -37,6 +39,6 @@ def _outcome(read: Callable[[], Source], allow_outside_files: bool) -> Outcome:
     """The one entry to the stages; they make no cyclic garbage to sweep for (specgen/heap.py)."""
     with few_full_collections():
         source = read()
-        machine = build(source, decide_directions, allow_outside_files=allow_outside_files)
-        results = run_checks(machine, resolve(machine))
+        machine, corners = build_with_corners(source, decide_directions, allow_outside_files=allow_outside_files)
+        results = run_corners(machine, run_checks(machine, resolve(machine)), corners, resolve, run_checks)
     return Outcome(source, machine, results)

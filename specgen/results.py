@@ -13,7 +13,7 @@ from functools import cached_property
 from specgen.checks.status import SEVERITY, Check, most_severe
 from specgen.trace import Input, Value
 
-__all__ = ["Check", "Contribution", "DriveResult", "DutyResult", "FluidResult", "ModeResult", "Results",
+__all__ = ["Check", "Contribution", "CornerResult", "DriveResult", "DutyResult", "FluidResult", "ModeResult", "Results",
            "SupplyModeResult", "SupplyResult"]
 
 
@@ -105,6 +105,32 @@ class FluidResult(_ValuesByKey):
     values: dict[str, Value] = field(default_factory=dict)
 
 
+@dataclass(frozen=True)
+class CornerResult:
+    """Every check at one operating corner (specgen/corners.py), each with ``corner`` set to ``id``.
+
+    ``overrides``: (spec path or group, what it does as text) in the spec's order; ``modes``: the
+    modes the corner applies to (empty: every mode); ``basis``: where assumed values come from."""
+
+    id: str
+    title: str
+    modes: tuple[str, ...]
+    overrides: tuple[tuple[str, str], ...]
+    checks: tuple[Check, ...]
+    assumed: bool = False
+    basis: str = ""
+
+    def counts(self) -> dict[str, int]:
+        out = dict.fromkeys(SEVERITY, 0)
+        for c in self.checks:
+            out[c.status] += 1
+        return out
+
+    @property
+    def verdict(self) -> str:
+        return most_severe(c.status for c in self.checks)
+
+
 # The order assumed values are listed in within one supply, drive or the fluid: the spec's own order.
 ASSUMED_FIELDS = (("pump", "volumetric_efficiency"), ("pump", "overall_efficiency"),
                   ("motor", "efficiency", "volumetric"), ("motor", "efficiency", "hydromechanical"),
@@ -122,6 +148,7 @@ class Results:
     supplies: tuple[SupplyResult, ...] = ()
     modes: tuple[ModeResult, ...] = ()
     fluid: FluidResult = field(default_factory=FluidResult)
+    corners: tuple[CornerResult, ...] = ()  # each corner's checks; ``checks`` holds each at its worst
 
     def drive_result(self, drive: str) -> DriveResult | None:
         return self._drives_by_id.get(drive)

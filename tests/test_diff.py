@@ -303,3 +303,19 @@ def test_values_of_one_drive_in_a_series_supply_are_compared_under_its_id():
     assert moved[("supply_mode_drive", ("main", "work", "hoist"), "outlet_pressure")].delta == pytest.approx(inlet.delta)
     assert ("supply_mode_drive", ("main", "work", "feed"), "outlet_pressure") not in moved  # the return: unchanged
     assert all("[" not in v.key for v in d.values)
+
+
+def test_a_check_whose_worst_corner_changed_is_a_change():
+    """Same failing status, now found at another operating corner: listed as moved, naming both."""
+    old, new = minimal(), minimal()
+    # Hand calculation: relief 250 bar + 5 % = 262.5 bar and + 10 % = 275 bar, both above the 260 bar
+    # peak rating: peak_pressure fails at each corner, at "tolerance" before and at "spike" now.
+    for d, corner in ((old, "tolerance"), (new, "spike")):
+        d["drives"]["hoist"]["motor"]["rating"]["peak_pressure"] = "260 bar"
+        d["corners"] = {corner: {"scale": {"supplies.relief_setting": "+5 %" if corner == "tolerance" else 1.10}}}
+    d = compare(outcome(old), outcome(new))
+    moved = [c for c in d.checks if c.id == "peak_pressure"]
+    assert len(moved) == 1 and moved[0].change == "moved"
+    assert (moved[0].old_corner, moved[0].new_corner) == ("tolerance", "spike")
+    assert moved[0].message.startswith("Worst at corner spike (was corner tolerance): ")
+    assert moved[0].new_value == pytest.approx(275e5)

@@ -97,6 +97,7 @@ class Check:
     supply: str | None = None
     mode: str | None = None
     margin: float | None = None
+    corner: str | None = None  # the operating corner this verdict was found at; None: the nominal point
 
     @property
     def where(self) -> str:

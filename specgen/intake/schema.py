@@ -298,3 +298,24 @@ def _describe(nodes: list[dict], value, path: tuple, root: dict, out: dict) -> N
             _describe(_child_nodes(candidates, i), v, path + (i,), root, out)
     else:
         out[path] = Field(kind=_kind(names), quantity=_kind(names) is not None or "quantity" in names)
+
+
+def field_at(path: tuple, value) -> Field | None:
+    """What the machine-spec schema says of ``path`` when it holds ``value``; None where the schema
+    has no such place. Every step above the leaf is taken as a mapping (ids match any key).
+
+    Example: field_at(("supplies", "main", "relief_setting"), "290 bar").kind == "pressure";
+    field_at(("supplies", "main", "relief"), "290 bar") is None.
+    """
+    root = schema()
+    nodes = [root]
+    for key in path:
+        candidates = [(n, names) for node in nodes for n, names in _branches(node, root) if _fits(n, {})]
+        nodes = _child_nodes(candidates, key)
+        if not nodes:
+            return None
+    candidates = [(n, names) for node in nodes for n, names in _branches(node, root) if _fits(n, value)]
+    if not candidates:
+        return Field()
+    names = [name for _, ns in candidates for name in ns]
+    return Field(kind=_kind(names), quantity=_kind(names) is not None or "quantity" in names)

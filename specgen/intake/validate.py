@@ -13,6 +13,7 @@ from typing import Callable
 
 from specgen.errors import Problem, SpecError
 from specgen.intake import defaults, schema
+from specgen.intake.build_corners import Corner, build_corners
 from specgen.intake.build_drives import build_drive, check_targets
 from specgen.intake.build_fluid import build_cooler, build_fluid
 from specgen.intake.build_sizing import build_sizing
@@ -90,7 +91,14 @@ def check_schema(source: Source) -> list[Problem]:
 
 
 def build(source: Source, directions: Directions, allow_outside_files: bool = False) -> Machine:
-    """Validate ``source`` completely and return its model. Raises SpecError listing every problem.
+    """Validate ``source`` completely and return its model. Raises SpecError listing every problem."""
+    return build_with_corners(source, directions, allow_outside_files)[0]
+
+
+def build_with_corners(source: Source, directions: Directions,
+                       allow_outside_files: bool = False) -> tuple[Machine, tuple[Corner, ...]]:
+    """Validate ``source`` completely and return its model and its operating corners (each override
+    parsed once, against the model). Raises SpecError listing every problem.
 
     ``directions`` decides each duty point's direction from its load (the load's sign is a relation
     of the trade, computed where the spec is resolved). Files the spec names (a sizing parts file)
@@ -123,9 +131,10 @@ def build(source: Source, directions: Directions, allow_outside_files: bool = Fa
     for path, message in contradictions:
         b.fail(path, message)
     check_targets(b, model.drives)
+    corners = build_corners(b, d, model) if "corners" in d or d.get("typical_corners") else ()
     if b.problems:
         raise SpecError(sorted(b.problems, key=lambda p: (p.location.line, p.location.column, p.path)))
-    return model
+    return model, corners
 
 
 def _references(b: Builder, d: dict) -> None:

@@ -48,6 +48,26 @@ def _limit(x: float | None, kind: str, system: str) -> dict | None:
     return {"value": number, "unit": unit}
 
 
+def _check(c, system: str, with_corner: bool) -> dict:
+    """One check; ``with_corner``: the spec names corners, so say where the check was found (null:
+    the nominal point). A spec without corners writes no such key."""
+    out = {"id": c.id, "title": c.title, "status": c.status,
+           "value": _limit(c.value, c.kind, system), "limit": _limit(c.limit, c.kind, system),
+           "margin": _margin(c.margin), "message": c.message,
+           "where": {"drive": c.drive, "duty": c.duty, "supply": c.supply, "mode": c.mode}}
+    if with_corner:
+        out["corner"] = c.corner
+    return out
+
+
+def _corner(k, system: str) -> dict:
+    """One operating corner: what it moves, its verdict and every check at it."""
+    return {"id": k.id, "title": k.title, "modes": list(k.modes),
+            "overrides": [{"path": path, "value": value} for path, value in k.overrides],
+            "assumed": k.assumed, "basis": k.basis, "verdict": k.verdict, "counts": k.counts(),
+            "checks": [_check(c, system, False) for c in k.checks]}
+
+
 def document(o: Outcome, review=None) -> dict:
     """``review``: the spec's review.ReviewStatus; its as_dict() goes under "review" when given."""
     system = o.machine.display_units
@@ -89,14 +109,8 @@ def document(o: Outcome, review=None) -> dict:
         ],
         "modes": [{"mode": m.mode, "values": {k: _value(v, system) for k, v in m.values.items()}} for m in r.modes],
         "fluid": {k: _value(v, system) for k, v in r.fluid.values.items()},
-        "checks": [
-            {"id": c.id, "title": c.title, "status": c.status,
-             "value": _limit(c.value, c.kind, system), "limit": _limit(c.limit, c.kind, system),
-             "margin": _margin(c.margin),
-             "message": c.message,
-             "where": {"drive": c.drive, "duty": c.duty, "supply": c.supply, "mode": c.mode}}
-            for c in r.checks
-        ],
+        "checks": [_check(c, system, bool(r.corners)) for c in r.checks],
+        **({"corners": [_corner(k, system) for k in r.corners]} if r.corners else {}),
         "assumed": assumed_list(r, system),
         **({"review": review.as_dict()} if review is not None else {}),
         "cautions": [{"title": t, "text": x} for t, x in CAUTIONS],

@@ -37,7 +37,25 @@ def checks_lines(o: Outcome, only_problems: bool) -> list[str]:
     checks = sorted(o.results.checks, key=lambda c: -RANK[c.status])
     if only_problems:
         checks = [c for c in checks if c.status != "pass"]
-    return [f"{c.status.upper():4}  {c.id:20} {escape(c.where)}: {escape(c.message)}" for c in checks]
+    return [f"{c.status.upper():4}  {c.id:20} {escape(c.where)}{_at(c)}: {escape(c.message)}" for c in checks]
+
+
+def _at(c) -> str:
+    """Where a check found at an operating corner says so; the nominal point says nothing."""
+    return f" [at corner {c.corner}]" if c.corner else ""
+
+
+def corner_lines(o: Outcome) -> list[str]:
+    """Each operating corner: what it moves and its own verdict, one line each."""
+    if not o.results.corners:
+        return []
+    out = ["", "Operating corners (every check above is shown at its worst; the nominal point wins a tie)"]
+    for r in o.results.corners:
+        moves = "; ".join(f"{k} {v}" for k, v in r.overrides)
+        modes = f" (modes {', '.join(r.modes)})" if r.modes else ""
+        note = f" ({r.basis})" if r.assumed else ""
+        out.append(escape(f"  {r.id}: {r.title}{modes}: {moves}{note} -> {r.verdict}"))
+    return out
 
 
 def fluid_sizing_heat_lines(o: Outcome, system: str) -> list[str]:
@@ -76,6 +94,7 @@ def render(o: Outcome, quiet: bool = False, review=None) -> str:
         out += ["", "Checks (failures and warnings first)"]
     problems = checks_lines(o, only_problems=quiet)
     out += problems
+    out += corner_lines(o) if not quiet else []
     assumed = assumed_list(o.results, system)
     if assumed and not quiet:
         out += ["", "Assumed values (not given in the spec)"]

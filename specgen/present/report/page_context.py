@@ -89,6 +89,10 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
         "footer": fp_footer,
         "verdict": r.verdict, "verdict_word": STATUS_WORD[r.verdict], "counts": r.counts(),
         "problems": problems, "checks": checks,
+        "corners": [{"id": k.id, "title": k.title, "modes": ", ".join(k.modes),
+                     "moves": "; ".join(f"{path} {value}" for path, value in k.overrides),
+                     "basis": k.basis if k.assumed else "", "verdict": k.verdict,
+                     "verdict_word": STATUS_WORD[k.verdict]} for k in r.corners],
         "cautions": [{"title": t, "text": x} for t, x in CAUTIONS],
         "description_html": to_html(m.description),
         "fluid": fluid_rows(o, system),
@@ -112,7 +116,7 @@ def _checks(o: Outcome, system: str) -> list[dict]:
             "n": n, "anchor": f"check-{n}", "id": c.id, "title": c.title, "status": c.status,
             "status_word": STATUS_WORD[c.status], "where": c.where or "whole machine",
             "value": show(c.value, c.kind, system, symbol), "limit": show(c.limit, c.kind, system, symbol),
-            "message": c.message, "target": _check_target(c),
+            "message": c.message, "target": _check_target(c), "corner": c.corner,
         })
     return out
 
