@@ -40,7 +40,9 @@ def _parser() -> argparse.ArgumentParser:
     sub = ap.add_subparsers(dest="command", metavar="COMMAND")
     c = sub.add_parser("check", help="validate, compute and check specs; print the results")
     c.add_argument("specs", nargs="+", metavar="SPEC", help="spec files or folders of specs")
-    c.add_argument("--format", choices=["text", "json"], default="text")
+    c.add_argument("--format", choices=["text", "json", "github", "junit"], default="text",
+                   help="text; json; github: GitHub Actions error and warning commands at the spec's lines; "
+                        "junit: JUnit XML, one testcase per check [text]")
     c.add_argument("--strict", action="store_true", help="count warnings as failures")
     c.add_argument("-q", "--quiet", action="store_true", help="print only the verdict, failures and warnings")
     c.add_argument("-o", "--output", metavar="FILE", help="write the output to FILE instead of standard output")
@@ -154,6 +156,10 @@ def cmd_check(args) -> int:
         from specgen.present import json_out
 
         _emit(json_out.render(outcomes, reviews=reviews), args.output, inputs)
+    elif args.format in ("github", "junit"):
+        from specgen.present import annotations, junit
+
+        _emit((annotations if args.format == "github" else junit).render(outcomes), args.output, inputs)
     else:
         from specgen.present import text
 
