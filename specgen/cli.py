@@ -63,13 +63,16 @@ def _parser() -> argparse.ArgumentParser:
 
 def _diff_parser(sub) -> None:
     from specgen.diff import FAIL_ON
-    from specgen.present.diff_out import FORMATS
+    from specgen.present.diff_out import FORMATS, MAX_CHARS
 
     d = sub.add_parser("diff", help="compare two revisions of a spec: inputs, results and checks")
     d.add_argument("old", metavar="OLD", help="spec file, or REV:path read from git (e.g. main:specs/loader.yaml)")
     d.add_argument("new", metavar="NEW", help="spec file, or REV:path read from git")
     d.add_argument("--format", choices=FORMATS, default="text")
     d.add_argument("-o", "--output", metavar="FILE", help="write the output to FILE instead of standard output")
+    d.add_argument("--max-chars", type=int, default=MAX_CHARS, metavar="N",
+                   help="markdown only: cut the comment to N characters, failures and regressions kept first; "
+                        "0 for the whole diff [%(default)s]")
     d.add_argument("--fail-on", choices=FAIL_ON, default="fail",
                    help="exit 1 when a check got worse and now stands at this status or beyond [fail]")
 
@@ -190,7 +193,7 @@ def cmd_diff(args) -> int:
         raise SpecError(problems)
     files = [a for a in (args.old, args.new) if split_revision(a) is None]
     d = compare(*sides)
-    _emit(render(d, args.format), args.output, _inputs(files, [s.source for s in sides]))
+    _emit(render(d, args.format, args.max_chars), args.output, _inputs(files, [s.source for s in sides]))
     return exits.diff_status(d, args.fail_on)
 
 

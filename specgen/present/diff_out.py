@@ -13,7 +13,7 @@ import re
 
 from specgen import __version__
 from specgen.cautions import SHORT
-from specgen.diff import INPUT_TOLERANCE, RESULT_TOLERANCE, Diff, InputChange, Side
+from specgen.diff import INPUT_TOLERANCE, RESULT_TOLERANCE, CheckChange, Diff, InputChange, Side
 from specgen.present.text import table
 from specgen.present.values import convert, format_si, significant
 from specgen.safe_text import escape
@@ -25,6 +25,8 @@ TEMPLATE = "diff.html.j2"
 CHECK_HEADER = ["status", "check", "where", "value before", "value now", "limit"]
 RESULT_HEADER = ["where", "quantity", "before", "now", "change", "%"]
 INPUT_HEADER = ["change", "field", "before", "now", "difference"]
+ITEM_LIMIT = 240  # characters of an added or removed item's values in one cell
+MAX_CHARS = 60_000  # a pull-request comment holds 65,536; room for a heading around each diff
 
 
 def _quantity(x: float | None, kind: str, system: str) -> dict | None:
@@ -98,6 +100,7 @@ def document(d: Diff) -> dict:
             "checks_changed": len(d.checks),
             "results_changed": len(d.values) + len(d.owners),
             "inputs_changed": len(d.input_changes),
+            "revision_unchanged": revision_unchanged(d),
         },
         "checks": checks(d.checks),
         "still_failing": checks(d.still_failing),
@@ -118,6 +121,29 @@ def document(d: Diff) -> dict:
     }
 
 
+def revision_unchanged(d: Diff) -> bool:
+    """The content changed but ``machine.revision`` did not: two different specs share one name."""
+    return bool(d.input_changes) and d.old.revision == d.new.revision
+
+
+def _flat(value, prefix: str = "") -> list[str]:
+    """An added or removed item's values as ``key value`` pairs, nested keys dotted."""
+    if isinstance(value, dict):
+        out = []
+        for k, v in value.items():
+            out += _flat(v, f"{prefix}{k}.")
+        return out
+    if isinstance(value, list):
+        return [f"{prefix[:-1]} {_raw(value)}"]
+    return [f"{prefix[:-1]} {value}" if prefix else str(value)]
+
+
+def _item_values(value) -> str:
+    text = "; ".join(_flat(value))
+    text = " ".join(text.split())
+    return text if len(text) <= ITEM_LIMIT else text[:ITEM_LIMIT - 3] + "..."
+
+
 def _input_row(c: InputChange, system: str) -> dict:
     if c.noun and c.change in ("added", "removed"):
         field = f"{c.noun} '{c.path[-1]}' ({c.dotted})"
@@ -128,7 +154,9 @@ def _input_row(c: InputChange, system: str) -> dict:
     else:
         diff = ""
     def shown(v):
-        return "-" if v is None or (c.noun and c.change in ("added", "removed")) else _raw(v)
+        if v is None:
+            return "-"
+        return _item_values(v) if c.noun and c.change in ("added", "removed") else _raw(v)
 
     return {"cells": [c.change, field, shown(c.old), shown(c.new), diff], "cls": c.change}
 
@@ -142,15 +170,57 @@ def _summary(d: Diff) -> str:
             f"{len(r) - to_fail} now warn.")
 
 
+def _span(texts: list[str]) -> str:
+    """One cell for the values of a group: the value when all agree, else each distinct one."""
+    distinct = list(dict.fromkeys(texts))
+    if len(distinct) <= 3:
+        return ", ".join(distinct)
+    return f"{distinct[0]} ... {distinct[-1]} ({len(distinct)} values)"
+
+
+def grouped(changes) -> list[list[CheckChange]]:
+    """Check changes that share a cause: same check id, same place but the mode, same status change.
+
+    A relief setting lowered on a supply that runs in six modes regresses its check in all six;
+    that is one line naming the six modes, not six lines. Order: each group where its first member
+    stood (regressions first, worst first, as ``diff_checks`` sorts them).
+    """
+    groups: dict[tuple, list] = {}
+    for c in changes:
+        place = tuple((k, v) for k, v in c.where.items() if k != "mode")
+        key = (c.id, place, c.change, c.old_status, c.new_status, c.where.get("mode") is None)
+        if c.where.get("mode") is None:
+            key += (id(c),)  # nothing to gather: each stands alone
+        groups.setdefault(key, []).append(c)
+    return list(groups.values())
+
+
+def _group_where(g: list[CheckChange]) -> str:
+    first = g[0]
+    if len(g) == 1:
+        return first.where_text or "-"
+    names = {"drive": "drive", "duty": "duty point", "supply": "supply"}
+    place = ", ".join(f"{names[k]} {v}" for k, v in first.where.items() if v and k != "mode")
+    modes = f"{len(g)} modes: " + ", ".join(str(c.where.get("mode")) for c in g)
+    return f"{place}, {modes}" if place else modes
+
+
 def view(d: Diff) -> dict:
-    """Sections with headers and cells, shared by the text, markdown and HTML renderers."""
+    """Sections with headers and cells, shared by the text, markdown and HTML renderers.
+
+    The cause leads: the inputs that changed, then the checks whose status changed (grouped by
+    ``grouped``), then the check values and results that moved.
+    """
     system = d.display_units
 
-    def check_row(c):
+    def check_row(g):
+        c = g[0]
         status = {"added": f"new: {c.new_status}", "removed": f"{c.old_status}: removed",
                   "moved": c.new_status, "unchanged": c.new_status}.get(c.change, f"{c.old_status} -> {c.new_status}")
-        return {"cells": [status, c.id, c.where_text or "-", _shown(c.old_value, c.kind, system),
-                          _shown(c.new_value, c.kind, system), _shown(c.limit, c.kind, system)],
+        return {"cells": [status, c.id, _group_where(g),
+                          _span([_shown(x.old_value, x.kind, system) for x in g]),
+                          _span([_shown(x.new_value, x.kind, system) for x in g]),
+                          _span([_shown(x.limit, x.kind, system) for x in g])],
                 "cls": c.regression or ("better" if c.change == "better" else c.change),
                 "message": c.message}
 
@@ -163,15 +233,17 @@ def view(d: Diff) -> dict:
     came = sum(c.change == "added" for c in quiet)
     went = len(quiet) - came
     sections = [
+        {"id": "inputs", "title": "Inputs changed (compared by physical value)", "header": INPUT_HEADER,
+         "rows": [_input_row(c, system) for c in d.input_changes], "empty": "No input changed."},
         {"id": "checks", "title": "Checks whose status changed (regressions first)", "header": CHECK_HEADER,
-         "rows": [check_row(c) for c in status_changes], "empty": "No check changed its status.",
+         "rows": [check_row(g) for g in grouped(status_changes)], "empty": "No check changed its status.",
          "note": (f"Not listed: {came} new check{'s' if came != 1 else ''} that pass{'es' if came == 1 else ''} "
                   f"and {went} passing check{'s' if went != 1 else ''} now gone (items or kinds of check "
                   "added or removed)." if quiet else "")},
         {"id": "margins", "title": "Check values that moved (status unchanged)", "header": CHECK_HEADER,
-         "rows": [check_row(c) for c in moved], "empty": "No check value moved."},
+         "rows": [check_row(g) for g in grouped(moved)], "empty": "No check value moved."},
         {"id": "still-failing", "title": "Still failing (unchanged)", "header": CHECK_HEADER,
-         "rows": [check_row(c) for c in d.still_failing], "empty": "No check fails in both revisions."},
+         "rows": [check_row(g) for g in grouped(d.still_failing)], "empty": "No check fails in both revisions."},
         {"id": "results", "title": f"Results changed (beyond {RESULT_TOLERANCE:.2%})", "header": RESULT_HEADER,
          "rows": [{"cells": [o.text, f"{ch} {o.scope.replace('_', ' ')}", "-", "-", ch, "-"], "cls": ch}
                   for o, ch in d.owners]
@@ -180,26 +252,29 @@ def view(d: Diff) -> dict:
                        f"{v.percent:+.2f} %" if v.percent is not None else "-"], "cls": v.change}
             for v in d.values],
          "empty": "No computed value moved."},
-        {"id": "inputs", "title": "Inputs changed (compared by physical value)", "header": INPUT_HEADER,
-         "rows": [_input_row(c, system) for c in d.input_changes], "empty": "No input changed."},
     ]
     for sec in sections:
         sec.setdefault("note", "")
         for row in sec["rows"]:
             row.setdefault("message", "")
-    said = [f"{c.id}, {c.where_text}: {c.message}" if c.where_text else f"{c.id}: {c.message}"
-            for c in d.regressions("warn")]
+    said = []
+    for g in grouped(d.regressions("warn")):
+        where = _group_where(g)
+        said.append(f"{g[0].id}, {where}: {g[0].message}" if where != "-" else f"{g[0].id}: {g[0].message}")
     respelled = [f"{c.dotted}: '{_raw(c.old)}' -> '{_raw(c.new)}'" for c in d.respelled]
     side = lambda s: f"{s.name}: {s.title} rev {s.revision}, {s.verdict.upper()} ({s.counts['pass']} pass, {s.counts['warn']} warn, {s.counts['fail']} fail)"  # noqa: E731
+    revision = (f"The content changed but machine.revision is still '{d.new.revision}': give this revision "
+                "its own name so reports and reviews can tell the two apart." if revision_unchanged(d) else "")
     return {"title": f"specgen diff: {d.old.name} -> {d.new.name}", "before": side(d.old), "now": side(d.new),
             "summary": _summary(d), "regressed": bool(d.regressions("warn")), "sections": sections,
             "respelled": respelled, "said": said, "caution": SHORT, "units": system,
-            "tolerance": f"{INPUT_TOLERANCE:.2%}"}
+            "tolerance": f"{INPUT_TOLERANCE:.2%}", "revision": revision, "cut": ""}
 
 
 def render_text(d: Diff) -> str:
     v = view(d)
     out = [v["title"], f"  before: {v['before']}", f"  now:    {v['now']}", v["summary"]]
+    out += [f"Note: {v['revision']}"] if v["revision"] else []
     for s in v["sections"]:
         if not s["rows"] and s["id"] in ("margins", "still-failing"):
             continue
@@ -238,10 +313,22 @@ def _md_cell(text: str) -> str:
     return text
 
 
-def render_markdown(d: Diff) -> str:
-    v = view(d)
+def _md_row(r: dict) -> str:
+    cells = [_md_cell(c) for c in r["cells"]]
+    if r["cls"] in ("fail", "warn"):
+        cells[0] = f"**{cells[0]}**"
+    return "| " + " | ".join(cells) + " |"
+
+
+def _markdown(v: dict, keep: dict | None = None) -> str:
+    """The markdown comment; ``keep``: rows to show per section id (None: all), plus "said"."""
+    def kept(key, items):
+        return items if keep is None else items[:keep.get(key, 0)]
+
     out = [f"### {_md_cell(v['title'])}", "", f"- before: {_md_cell(v['before'])}", f"- now: {_md_cell(v['now'])}",
            "", f"**{_md_cell(v['summary'])}**"]
+    out += ["", f"**Note:** {_md_cell(v['revision'])}"] if v["revision"] else []
+    out += ["", f"_{_md_cell(v['cut'])}_"] if keep is not None and v["cut"] else []
     for s in v["sections"]:
         if not s["rows"] and s["id"] in ("margins", "still-failing"):
             continue
@@ -249,21 +336,69 @@ def render_markdown(d: Diff) -> str:
         if not s["rows"]:
             out += [s["empty"]] + (["", _md_cell(s["note"])] if s["note"] else [])
             continue
-        out.append("| " + " | ".join(s["header"]) + " |")
-        out.append("|" + "|".join("---" for _ in s["header"]) + "|")
-        for r in s["rows"]:
-            cells = [_md_cell(c) for c in r["cells"]]
-            if r["cls"] in ("fail", "warn"):
-                cells[0] = f"**{cells[0]}**"
-            out.append("| " + " | ".join(cells) + " |")
+        rows = kept(s["id"], s["rows"])
+        if rows:
+            out.append("| " + " | ".join(s["header"]) + " |")
+            out.append("|" + "|".join("---" for _ in s["header"]) + "|")
+            out += [_md_row(r) for r in rows]
+        if len(rows) < len(s["rows"]):
+            left = len(s["rows"]) - len(rows)
+            out += ([""] if rows else []) + [f"_{left} more row{'s' if left != 1 else ''} not shown here: "
+                                             "see the full diff._"]
         out += ["", _md_cell(s["note"])] if s["note"] else []
-        if s["id"] == "checks" and v["said"]:
-            out += ["", "What the checks that got worse say now:", ""] + [f"- {_md_cell(x)}" for x in v["said"]]
+        said = kept("said", v["said"]) if s["id"] == "checks" else []
+        if said:
+            out += ["", "What the checks that got worse say now:", ""] + [f"- {_md_cell(x)}" for x in said]
     if v["respelled"]:
-        out += ["", f"Same value written differently (within {v['tolerance']}), not a change: "
-                + "; ".join(_md_cell(x) for x in v["respelled"])]
+        if keep is None:
+            out += ["", f"Same value written differently (within {v['tolerance']}), not a change: "
+                    + "; ".join(_md_cell(x) for x in v["respelled"])]
+        else:
+            out += ["", f"{len(v['respelled'])} values written differently (within {v['tolerance']}), "
+                    "not a change: see the full diff."]
     out += ["", f"_{_md_cell(v['caution'])}_"]
     return "\n".join(out) + "\n"
+
+
+# Which rows a cut comment keeps first: status changes (regressions lead them, worst first) with
+# what they say, the checks still failing, the inputs that changed, then the values that moved.
+CUT_PRIORITY = ("checks", "still-failing", "inputs", "margins", "results")
+
+
+def render_markdown(d: Diff, max_chars: int | None = MAX_CHARS) -> str:
+    """The diff as a pull-request comment of at most ``max_chars`` characters (None or 0: no limit).
+
+    A longer diff keeps its heading, summary and caution, and rows by ``CUT_PRIORITY`` while they
+    fit; whole rows only, so no table or list is broken. A note under the summary says it was cut.
+    """
+    v = view(d)
+    full = _markdown(v)
+    if not max_chars or len(full) <= max_chars:
+        return full
+    v["cut"] = (f"This diff is {len(full):,} characters; a comment holds {max_chars:,}. Shown: the summary, "
+                "then rows by weight (failures and regressions first). The full diff is in the run's artefact "
+                "(specgen diff OLD NEW --format markdown --max-chars 0).")
+    sections = {s["id"]: s for s in v["sections"]}
+    cost = {sid: [len(_md_row(r)) + 1 for r in sec["rows"]] for sid, sec in sections.items()}
+    said_cost = [len(_md_cell(x)) + 3 for x in v["said"]]
+    budget = max_chars - len(_markdown(v, keep={})) - 400  # room for the tables' headers and notes
+    while True:
+        keep, left = {"said": 0}, budget
+        for sid in CUT_PRIORITY:
+            n = 0
+            for i, c in enumerate(cost.get(sid, [])):
+                extra = said_cost[i] if sid == "checks" and i < len(said_cost) else 0
+                if c + extra > left:
+                    break
+                left -= c + extra
+                n += 1
+            keep[sid] = n
+            if sid == "checks":
+                keep["said"] = min(n, len(v["said"]))
+        text = _markdown(v, keep)
+        if len(text) <= max_chars or budget <= 0:
+            return text
+        budget -= len(text) - max_chars + 200
 
 
 def render_json(d: Diff) -> str:
@@ -284,5 +419,6 @@ def render_html(d: Diff) -> str:
 RENDERERS = {"text": render_text, "markdown": render_markdown, "json": render_json, "html": render_html}
 
 
-def render(d: Diff, fmt: str = "text") -> str:
-    return RENDERERS[fmt](d)
+def render(d: Diff, fmt: str = "text", max_chars: int | None = MAX_CHARS) -> str:
+    """``max_chars`` bounds the markdown comment only; the other formats are always whole."""
+    return render_markdown(d, max_chars) if fmt == "markdown" else RENDERERS[fmt](d)
