@@ -1,0 +1,115 @@
+"""The revision diff's presentation (present/diff_out.py): cause first, one line for one cause
+across modes, added items with their values, the unchanged-revision flag, and a markdown comment
+cut to fit without breaking a table."""
+
+import json
+import re
+
+import yaml
+
+from helpers import minimal
+from specgen.bench import _demo_data, demo_spec, generate
+from specgen.diff import compare
+from specgen.intake.read import load_text
+from specgen.pipeline import evaluate
+from specgen.present import diff_out
+
+
+def outcome(data: dict, name: str = "spec.yaml"):
+    return evaluate(load_text(yaml.safe_dump(data, sort_keys=False).encode(), name))
+
+
+def two_modes() -> dict:
+    d = minimal()
+    d["modes"]["idle_lift"] = {"drives": {"hoist": "lift"}}
+    return d
+
+
+def weak_engine() -> tuple:
+    old, new = two_modes(), two_modes()
+    # the pump takes 40 cm^3 * 1500 rpm = 1 L/s at about 250 bar: some kW; 1 kW cannot drive it in either mode
+    new["supplies"]["main"]["prime_mover_power"] = "1 kW"
+    new["machine"]["revision"] = "B"
+    return old, new
+
+
+def test_one_cause_in_two_modes_is_one_line_naming_both():
+    old, new = weak_engine()
+    d = compare(outcome(old), outcome(new))
+    power = [c for c in d.checks if c.id == "prime_mover_power"]
+    assert len(power) == 2 and {c.where["mode"] for c in power} == {"work", "idle_lift"}
+    md = diff_out.render(d, "markdown")
+    rows = [line for line in md.splitlines() if "prime\\_mover\\_power" in line and line.startswith("| **")]
+    assert len(rows) == 1
+    assert "supply main, 2 modes: work, idle\\_lift" in rows[0] or "supply main, 2 modes: idle\\_lift, work" in rows[0]
+    # JSON keeps every check apart (one record per check and mode)
+    assert sum(c["id"] == "prime_mover_power" for c in json.loads(diff_out.render(d, "json"))["checks"]) == 2
+
+
+def test_the_cause_leads_inputs_then_status_changes_then_moved_values():
+    old, new = weak_engine()
+    d = compare(outcome(old), outcome(new))
+    for fmt in ("text", "markdown"):
+        out = diff_out.render(d, fmt)
+        at = [out.index(t) for t in ("Inputs changed", "Checks whose status changed", "Results changed")]
+        assert at == sorted(at), fmt
+
+
+def test_an_added_duty_point_shows_its_values():
+    old, new = minimal(), minimal()
+    new["drives"]["hoist"]["duty_points"]["creep"] = {"torque": "120 N*m", "speed": "40 rpm"}
+    new["machine"]["revision"] = "B"
+    text = diff_out.render(compare(outcome(old), outcome(new)), "text")
+    row = next(line for line in text.splitlines() if "duty point 'creep'" in line)
+    assert "torque 120 N*m; speed 40 rpm" in row
+
+
+def test_content_changed_under_the_same_revision_is_flagged():
+    old, new = weak_engine()
+    new["machine"]["revision"] = "A"  # minimal() is rev A too
+    same = compare(outcome(old), outcome(new))
+    assert json.loads(diff_out.render(same, "json"))["summary"]["revision_unchanged"] is True
+    text = diff_out.render(same, "text").splitlines()
+    assert text[4].startswith("Note: The content changed but machine.revision is still 'A'")
+    assert "machine.revision is still" in diff_out.render(same, "html")
+    renamed = compare(outcome(old), outcome(weak_engine()[1]))  # rev B
+    assert json.loads(diff_out.render(renamed, "json"))["summary"]["revision_unchanged"] is False
+    assert "machine.revision is still" not in diff_out.render(renamed, "markdown")
+
+
+def _tables_whole(md: str) -> int:
+    lines, i, tables = md.splitlines(), 0, 0
+    while i < len(lines):
+        if lines[i].startswith("|"):
+            block = []
+            while i < len(lines) and lines[i].startswith("|"):
+                block.append(lines[i])
+                i += 1
+            width = len(re.split(r"(?<!\\)\|", block[0][1:-1]))
+            assert re.fullmatch(r"\|(---\|)+", block[1])
+            assert all(r.endswith(" |") and len(re.split(r"(?<!\\)\|", r[1:-1])) == width for r in block[:1] + block[2:])
+            tables += 1
+        i += 1
+    return tables
+
+
+def test_a_long_diff_is_cut_to_fit_with_regressions_kept_first():
+    demo = _demo_data(demo_spec())
+    old = generate(demo, 120, 12)
+    new = yaml.safe_load(yaml.safe_dump(old, sort_keys=False))
+    for did in [k for k in new["drives"] if k.startswith("track_")][:30]:
+        for dp in new["drives"][did]["duty_points"].values():
+            if "torque" in dp:
+                number, unit = dp["torque"].split(" ", 1)
+                dp["torque"] = f"{float(number) * 1.3:g} {unit}"
+    d = compare(outcome(old, "old.yaml"), outcome(new, "new.yaml"))
+    full = diff_out.render(d, "markdown", max_chars=0)
+    cut = diff_out.render(d, "markdown", max_chars=12_000)
+    assert len(full) > 12_000 >= len(cut)
+    assert "characters; a comment holds 12,000" in cut and "--max-chars 0" in cut
+    assert _tables_whole(cut) >= 1
+    first_regression = next(line for line in full.splitlines() if line.startswith("| **pass -> fail**"))
+    assert first_regression in cut
+    assert re.search(r"_\d+ more rows? not shown here: see the full diff\._", cut)
+    assert cut.rstrip().endswith("see the report's cautions._")  # the caution is never cut
+    assert diff_out.render(d, "markdown") == full or len(full) > diff_out.MAX_CHARS
