@@ -53,8 +53,11 @@ def _parser() -> argparse.ArgumentParser:
     _diff_parser(sub)
     _review_parser(sub)
     _report_parser(sub)
-    s = sub.add_parser("schema", help="print the spec's JSON Schema (for editors)")
+    s = sub.add_parser("schema", help="print the spec's JSON Schema (for editors), or its key reference")
     s.add_argument("-o", "--output", metavar="FILE")
+    s.add_argument("--keys", action="store_true",
+                   help="print the key reference as markdown instead: every key, its meaning, kind and an example "
+                        "(the repository keeps it as schemas/keys.md)")
     i = sub.add_parser("init", help="write a starter spec")
     i.add_argument("path", nargs="?", default="machine.yaml")
     i.add_argument("--force", action="store_true", help="overwrite an existing file")
@@ -250,6 +253,11 @@ def cmd_schema(args) -> int:
 
     from specgen.intake.schema import schema
 
+    if args.keys:
+        from specgen import keyref
+
+        _emit(keyref.render(), args.output)
+        return exits.OK
     _emit(json.dumps(schema(), indent=2) + "\n", args.output)
     return exits.OK
 
