@@ -263,13 +263,24 @@ def cmd_schema(args) -> int:
 
 
 def cmd_init(args) -> int:
+    """Write the starter spec, and the JSON Schema beside it for the editor's schema comment."""
+    import json
+
+    from specgen.intake.schema import schema
     from specgen.output import write_atomic
-    from specgen.starter import STARTER
+    from specgen.starter import SCHEMA_NAME, STARTER
 
     if Path(args.path).exists() and not args.force:
         raise SpecError([Problem(Location(args.path), "", "already exists; use --force to overwrite it")])
     write_atomic(args.path, STARTER)
     print(f"wrote {escape(args.path)}")
+    target = Path(args.path).parent / SCHEMA_NAME
+    text = json.dumps(schema(), indent=2) + "\n"
+    if target.exists() and not args.force and target.read_text(encoding="utf-8", errors="replace") != text:
+        print(f"kept {escape(target)} (it differs from this specgen's schema; --force replaces it)")
+    elif not target.exists() or args.force:
+        write_atomic(target, text)
+        print(f"wrote {escape(target)} (the schema the spec's first line points at, for your editor)")
     return exits.OK
 
 
