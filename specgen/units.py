@@ -144,16 +144,18 @@ def _describe_dimension(q) -> str:
 
 
 def _wrong_kind(text: str, q, kind: Kind, unit: str) -> UnitProblem:
-    """'250 rpm' is speed; expected pressure ... / '9 kNm' is not a torque: it reads as length per mass."""
+    """'250 rpm' is speed; expected pressure ... / '9 kNm' is not a torque: it reads as length per mass.
+
+    A unit of another kind is a plain mistake of field; only a unit of no kind gets a spelling hint
+    (worked out only here, as fields of no single kind try every kind in turn)."""
     from specgen.unit_hints import did_you_mean
 
-    hint = did_you_mean(text, unit, kind.name)
     named = next((k.name for k in KINDS.values() if k.dimensionality
                   and q.dimensionality == registry().get_dimensionality(k.dimensionality)), None)
     if named:
-        return UnitProblem(f"'{text}' is {named}; expected {kind.name} such as '{kind.example}'{hint}")
-    words = _describe_dimension(q)
-    return UnitProblem(f"'{text}' is not a {kind.name}: it reads as {words}"
+        return UnitProblem(f"'{text}' is {named}; expected {kind.name} such as '{kind.example}'")
+    hint = "" if q.dimensionless else did_you_mean(text, unit, kind.name)
+    return UnitProblem(f"'{text}' is not a {kind.name}: it reads as {_describe_dimension(q)}"
                        + (hint or f"; write it as e.g. '{kind.example}'"))
 
 
