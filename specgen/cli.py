@@ -40,7 +40,9 @@ def _parser() -> argparse.ArgumentParser:
     sub = ap.add_subparsers(dest="command", metavar="COMMAND")
     c = sub.add_parser("check", help="validate, compute and check specs; print the results")
     c.add_argument("specs", nargs="+", metavar="SPEC", help="spec files or folders of specs")
-    c.add_argument("--format", choices=["text", "json"], default="text")
+    c.add_argument("--format", choices=["text", "json", "github", "junit"], default="text",
+                   help="text; json; github: GitHub Actions error and warning commands at the spec's lines; "
+                        "junit: JUnit XML, one testcase per check [text]")
     c.add_argument("--strict", action="store_true", help="count warnings as failures")
     c.add_argument("-q", "--quiet", action="store_true", help="print only the verdict, failures and warnings")
     c.add_argument("-o", "--output", metavar="FILE", help="write the output to FILE instead of standard output")
@@ -51,8 +53,11 @@ def _parser() -> argparse.ArgumentParser:
     _diff_parser(sub)
     _review_parser(sub)
     _report_parser(sub)
-    s = sub.add_parser("schema", help="print the spec's JSON Schema (for editors)")
+    s = sub.add_parser("schema", help="print the spec's JSON Schema (for editors), or its key reference")
     s.add_argument("-o", "--output", metavar="FILE")
+    s.add_argument("--keys", action="store_true",
+                   help="print the key reference as markdown instead: every key, its meaning, kind and an example "
+                        "(the repository keeps it as schemas/keys.md)")
     i = sub.add_parser("init", help="write a starter spec")
     i.add_argument("path", nargs="?", default="machine.yaml")
     i.add_argument("--force", action="store_true", help="overwrite an existing file")
@@ -61,13 +66,16 @@ def _parser() -> argparse.ArgumentParser:
 
 def _diff_parser(sub) -> None:
     from specgen.diff import FAIL_ON
-    from specgen.present.diff_out import FORMATS
+    from specgen.present.diff_out import FORMATS, MAX_CHARS
 
     d = sub.add_parser("diff", help="compare two revisions of a spec: inputs, results and checks")
     d.add_argument("old", metavar="OLD", help="spec file, or REV:path read from git (e.g. main:specs/loader.yaml)")
     d.add_argument("new", metavar="NEW", help="spec file, or REV:path read from git")
     d.add_argument("--format", choices=FORMATS, default="text")
     d.add_argument("-o", "--output", metavar="FILE", help="write the output to FILE instead of standard output")
+    d.add_argument("--max-chars", type=int, default=MAX_CHARS, metavar="N",
+                   help="markdown only: cut the comment to N characters, failures and regressions kept first; "
+                        "0 for the whole diff [%(default)s]")
     d.add_argument("--fail-on", choices=FAIL_ON, default="fail",
                    help="exit 1 when a check got worse and now stands at this status or beyond [fail]")
 
@@ -154,6 +162,10 @@ def cmd_check(args) -> int:
         from specgen.present import json_out
 
         _emit(json_out.render(outcomes, reviews=reviews), args.output, inputs)
+    elif args.format in ("github", "junit"):
+        from specgen.present import annotations, junit
+
+        _emit((annotations if args.format == "github" else junit).render(outcomes), args.output, inputs)
     else:
         from specgen.present import text
 
@@ -184,7 +196,7 @@ def cmd_diff(args) -> int:
         raise SpecError(problems)
     files = [a for a in (args.old, args.new) if split_revision(a) is None]
     d = compare(*sides)
-    _emit(render(d, args.format), args.output, _inputs(files, [s.source for s in sides]))
+    _emit(render(d, args.format, args.max_chars), args.output, _inputs(files, [s.source for s in sides]))
     return exits.diff_status(d, args.fail_on)
 
 
@@ -241,18 +253,34 @@ def cmd_schema(args) -> int:
 
     from specgen.intake.schema import schema
 
+    if args.keys:
+        from specgen import keyref
+
+        _emit(keyref.render(), args.output)
+        return exits.OK
     _emit(json.dumps(schema(), indent=2) + "\n", args.output)
     return exits.OK
 
 
 def cmd_init(args) -> int:
+    """Write the starter spec, and the JSON Schema beside it for the editor's schema comment."""
+    import json
+
+    from specgen.intake.schema import schema
     from specgen.output import write_atomic
-    from specgen.starter import STARTER
+    from specgen.starter import SCHEMA_NAME, STARTER
 
     if Path(args.path).exists() and not args.force:
         raise SpecError([Problem(Location(args.path), "", "already exists; use --force to overwrite it")])
     write_atomic(args.path, STARTER)
     print(f"wrote {escape(args.path)}")
+    target = Path(args.path).parent / SCHEMA_NAME
+    text = json.dumps(schema(), indent=2) + "\n"
+    if target.exists() and not args.force and target.read_text(encoding="utf-8", errors="replace") != text:
+        print(f"kept {escape(target)} (it differs from this specgen's schema; --force replaces it)")
+    elif not target.exists() or args.force:
+        write_atomic(target, text)
+        print(f"wrote {escape(target)} (the schema the spec's first line points at, for your editor)")
     return exits.OK
 
 

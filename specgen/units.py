@@ -135,10 +135,28 @@ def registry():
 
 
 def _describe_dimension(q) -> str:
+    from specgen.unit_hints import dimension_words
+
     for kind in KINDS.values():
         if kind.dimensionality and q.dimensionality == registry().get_dimensionality(kind.dimensionality):
             return kind.name
-    return str(q.dimensionality) or "a plain number"
+    return dimension_words(q.dimensionality)
+
+
+def _wrong_kind(text: str, q, kind: Kind, unit: str) -> UnitProblem:
+    """'250 rpm' is speed; expected pressure ... / '9 kNm' is not a torque: it reads as length per mass.
+
+    A unit of another kind is a plain mistake of field; only a unit of no kind gets a spelling hint
+    (worked out only here, as fields of no single kind try every kind in turn)."""
+    from specgen.unit_hints import did_you_mean
+
+    named = next((k.name for k in KINDS.values() if k.dimensionality
+                  and q.dimensionality == registry().get_dimensionality(k.dimensionality)), None)
+    if named:
+        return UnitProblem(f"'{text}' is {named}; expected {kind.name} such as '{kind.example}'")
+    hint = "" if q.dimensionless else did_you_mean(text, unit, kind.name)
+    return UnitProblem(f"'{text}' is not a {kind.name}: it reads as {_describe_dimension(q)}"
+                       + (hint or f"; write it as e.g. '{kind.example}'"))
 
 
 # The grammar in the module text, as regular expressions on ASCII digits and spaces only
@@ -300,7 +318,7 @@ def _unit_factor(unit: str, kind_name: str) -> float | None:
 
 
 def _read(text: str, kind: Kind, number: float, unit: str) -> float:
-    q = _quantity(text, number, unit)
+    q = _quantity(text, number, unit, kind.name)
     ureg = registry()
     if q.unitless and kind.name not in ("ratio", "angle"):
         raise UnitProblem(f"'{text}' has no unit; write the {kind.name} with its unit, e.g. '{kind.example}'")
@@ -312,15 +330,13 @@ def _read(text: str, kind: Kind, number: float, unit: str) -> float:
         value = float(q.to(kind.si_unit).magnitude)
     else:
         if q.dimensionality != ureg.get_dimensionality(kind.dimensionality):
-            raise UnitProblem(
-                f"'{text}' is {_describe_dimension(q)}; expected {kind.name} such as '{kind.example}'"
-            )
+            raise _wrong_kind(text, q, kind, unit)
         value = _to_si(q, kind, text)
     _finite(value, text)
     return value
 
 
-def _quantity(text: str, number: float, unit: str):
+def _quantity(text: str, number: float, unit: str, kind_name: str = ""):
     """pint reads only the unit text (already checked by the grammar); the number stays a float."""
     ureg = registry()
     if not unit:
@@ -330,7 +346,10 @@ def _quantity(text: str, number: float, unit: str):
     except Exception as exc:  # pint raises several unrelated types for unreadable text
         name = getattr(exc, "unit_names", None) or getattr(exc, "args", [""])[:1]
         detail = f"unknown unit {', '.join(map(str, name))!s}" if name else "unreadable"
-        raise UnitProblem(f"'{text}' cannot be read as a quantity ({detail})") from None
+        from specgen.unit_hints import did_you_mean
+
+        hint = did_you_mean(text, unit, kind_name) if kind_name else ""
+        raise UnitProblem(f"'{text}' cannot be read as a quantity ({detail}){hint}") from None
 
 
 def _has_angle(q) -> bool:
@@ -369,7 +388,10 @@ def _parse_temperature(text: str, number: float, unit: str) -> float:
         q = ureg.Quantity(number, unit)
         kelvin = float(q.to("K").magnitude)
     except Exception:
-        raise UnitProblem(f"'{text}' is not a temperature such as '50 degC' (unknown or wrong unit)") from None
+        from specgen.unit_hints import did_you_mean
+
+        raise UnitProblem(f"'{text}' is not a temperature such as '50 degC' (unknown or wrong unit)"
+                          + did_you_mean(text, unit, "temperature")) from None
     if kelvin <= 0:
         raise UnitProblem(f"'{text}' is at or below absolute zero")
     return kelvin

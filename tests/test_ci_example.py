@@ -14,6 +14,8 @@ import sys
 from pathlib import Path
 
 import pytest
+import xml.etree.ElementTree as ET
+
 import yaml
 
 import specgen
@@ -40,7 +42,7 @@ def env(tmp_path):
     e = {**os.environ, **GIT_ENV, "PATH": f"{bin_dir}{os.pathsep}{os.environ['PATH']}",
          "PYTHONPATH": package_root, "SCRIPT": str(SCRIPT), "BASE_REF": "main"}
     e["SKIP_REPORTS"] = "1"  # reports take seconds each; one test below builds them
-    for key in ("FAIL_ON", "REQUIRE_REVIEW"):
+    for key in ("FAIL_ON", "REQUIRE_REVIEW", "GITHUB_ACTIONS"):
         e.pop(key, None)
     return e
 
@@ -80,15 +82,28 @@ def test_workflow_is_an_inactive_example():
     assert any("upload-artifact" in s.get("uses", "") for s in steps)
     assert any("gh pr comment" in s.get("run", "") and "diff.md" in s["run"] for s in steps)
     assert wf["jobs"]["specs"]["env"]["SCRIPT"].endswith(SCRIPT.name)
+    text = WORKFLOW.read_text(encoding="utf-8") + SCRIPT.read_text(encoding="utf-8")
+    assert "--format github" in text and "--format junit" in text and "check.xml" in text
 
 
 def test_regression_fails_the_job_and_the_comment_says_why(repo, env):
     # 5 kN*m on the left track needs far more than the 280 bar relief setting: pressure margin pass -> fail
     commit(repo, {"specs/harvester.yaml": example_revision({("track_left", "harvest"): "5 kN*m"})}, "heavier")
     with_reports = {"SKIP_REPORTS": "0" if "report" in COMMANDS else "1"}
-    status, log = run_step(repo, env, **with_reports)
+    status, log = run_step(repo, env, GITHUB_ACTIONS="true", **with_reports)
     assert status == 1, log
     out = repo / "build" / "spec-review"
+    # on a GitHub runner the failing check marks its duty point's line in the pull request
+    error = re.search(r"^::error file=specs/harvester\.yaml,line=(\d+),title=pressure_margin "
+                      r"\(drive track_left%2C duty point harvest\)::", log, re.M)
+    assert error, log
+    spec_lines = (repo / "specs" / "harvester.yaml").read_text(encoding="utf-8").splitlines()
+    assert spec_lines[int(error.group(1)) - 1].strip().startswith("harvest:")
+    junit = ET.fromstring((out / "check.xml").read_bytes())
+    failed = [c.get("name") for c in junit.iter("testcase") if c.find("failure") is not None]
+    assert "pressure_margin (drive track_left, duty point harvest)" in failed
+    full = (out / "diff-full.md").read_text(encoding="utf-8")
+    assert len((out / "diff.md").read_text(encoding="utf-8")) <= 60_000 and "pressure\\_margin" in full
     md = (out / "diff.md").read_text(encoding="utf-8")
     assert md.startswith("## Spec changes against main (")
     assert "### specgen diff: " in md and "| status | check | where | value before | value now | limit |" in md

@@ -251,7 +251,8 @@ def test_json_output_matches_its_schema(regression):
     assert doc["summary"] == {
         "regressions": len(regressions), "to_fail": sum(c["regression"] == "fail" for c in regressions),
         "to_warn": sum(c["regression"] == "warn" for c in regressions), "checks_changed": len(doc["checks"]),
-        "results_changed": len(doc["results"]["values"]) + len(doc["results"]["items"]), "inputs_changed": 2}
+        "results_changed": len(doc["results"]["values"]) + len(doc["results"]["items"]), "inputs_changed": 2,
+        "revision_unchanged": True}  # example_revision changes torques and keeps rev C
     assert doc["new"]["verdict"] == "fail"
 
 

@@ -88,7 +88,7 @@ def test_number_times_cached_scale_equals_the_full_reading(unit_kind, x, form):
 
 
 @pytest.mark.parametrize("text, kind, words", [
-    ("250 rpm", "pressure", "'250 rpm' is speed; expected pressure"),
+    ("250 rpm", "pressure", "'250 rpm' is speed; expected pressure such as '250 bar'"),
     ("250 barr", "pressure", "'250 barr' cannot be read as a quantity"),
     ("25 Hz", "speed", "'25 Hz' gives no turns or angle per time"),
     ("1.8 kJ", "torque", "'1.8 kJ' reads as energy"),

@@ -9,14 +9,14 @@ Checks failing unchanged on both sides are listed too, and the caution line clos
 from __future__ import annotations
 
 import json
-import re
 
 from specgen import __version__
 from specgen.cautions import SHORT
-from specgen.diff import INPUT_TOLERANCE, RESULT_TOLERANCE, Diff, InputChange, Side
+from specgen.diff import INPUT_TOLERANCE, RESULT_TOLERANCE, CheckChange, Diff, InputChange, Side
+from specgen.present import diff_markdown
+from specgen.present.diff_markdown import MAX_CHARS, _md_cell  # noqa: F401 - part of this module's surface
 from specgen.present.text import table
 from specgen.present.values import convert, format_si, significant
-from specgen.safe_text import escape
 from specgen.units import KINDS
 
 DIFF_FORMAT = 1
@@ -25,6 +25,7 @@ TEMPLATE = "diff.html.j2"
 CHECK_HEADER = ["status", "check", "where", "value before", "value now", "limit"]
 RESULT_HEADER = ["where", "quantity", "before", "now", "change", "%"]
 INPUT_HEADER = ["change", "field", "before", "now", "difference"]
+ITEM_LIMIT = 240  # characters of an added or removed item's values in one cell
 
 
 def _quantity(x: float | None, kind: str, system: str) -> dict | None:
@@ -98,6 +99,7 @@ def document(d: Diff) -> dict:
             "checks_changed": len(d.checks),
             "results_changed": len(d.values) + len(d.owners),
             "inputs_changed": len(d.input_changes),
+            "revision_unchanged": revision_unchanged(d),
         },
         "checks": checks(d.checks),
         "still_failing": checks(d.still_failing),
@@ -118,6 +120,29 @@ def document(d: Diff) -> dict:
     }
 
 
+def revision_unchanged(d: Diff) -> bool:
+    """The content changed but ``machine.revision`` did not: two different specs share one name."""
+    return bool(d.input_changes) and d.old.revision == d.new.revision
+
+
+def _flat(value, prefix: str = "") -> list[str]:
+    """An added or removed item's values as ``key value`` pairs, nested keys dotted."""
+    if isinstance(value, dict):
+        out = []
+        for k, v in value.items():
+            out += _flat(v, f"{prefix}{k}.")
+        return out
+    if isinstance(value, list):
+        return [f"{prefix[:-1]} {_raw(value)}"]
+    return [f"{prefix[:-1]} {value}" if prefix else str(value)]
+
+
+def _item_values(value) -> str:
+    text = "; ".join(_flat(value))
+    text = " ".join(text.split())
+    return text if len(text) <= ITEM_LIMIT else text[:ITEM_LIMIT - 3] + "..."
+
+
 def _input_row(c: InputChange, system: str) -> dict:
     if c.noun and c.change in ("added", "removed"):
         field = f"{c.noun} '{c.path[-1]}' ({c.dotted})"
@@ -128,7 +153,9 @@ def _input_row(c: InputChange, system: str) -> dict:
     else:
         diff = ""
     def shown(v):
-        return "-" if v is None or (c.noun and c.change in ("added", "removed")) else _raw(v)
+        if v is None:
+            return "-"
+        return _item_values(v) if c.noun and c.change in ("added", "removed") else _raw(v)
 
     return {"cells": [c.change, field, shown(c.old), shown(c.new), diff], "cls": c.change}
 
@@ -142,15 +169,57 @@ def _summary(d: Diff) -> str:
             f"{len(r) - to_fail} now warn.")
 
 
+def _span(texts: list[str]) -> str:
+    """One cell for the values of a group: the value when all agree, else each distinct one."""
+    distinct = list(dict.fromkeys(texts))
+    if len(distinct) <= 3:
+        return ", ".join(distinct)
+    return f"{distinct[0]} ... {distinct[-1]} ({len(distinct)} values)"
+
+
+def grouped(changes) -> list[list[CheckChange]]:
+    """Check changes that share a cause: same check id, same place but the mode, same status change.
+
+    A relief setting lowered on a supply that runs in six modes regresses its check in all six;
+    that is one line naming the six modes, not six lines. Order: each group where its first member
+    stood (regressions first, worst first, as ``diff_checks`` sorts them).
+    """
+    groups: dict[tuple, list] = {}
+    for c in changes:
+        place = tuple((k, v) for k, v in c.where.items() if k != "mode")
+        key = (c.id, place, c.change, c.old_status, c.new_status, c.where.get("mode") is None)
+        if c.where.get("mode") is None:
+            key += (id(c),)  # nothing to gather: each stands alone
+        groups.setdefault(key, []).append(c)
+    return list(groups.values())
+
+
+def _group_where(g: list[CheckChange]) -> str:
+    first = g[0]
+    if len(g) == 1:
+        return first.where_text or "-"
+    names = {"drive": "drive", "duty": "duty point", "supply": "supply"}
+    place = ", ".join(f"{names[k]} {v}" for k, v in first.where.items() if v and k != "mode")
+    modes = f"{len(g)} modes: " + ", ".join(str(c.where.get("mode")) for c in g)
+    return f"{place}, {modes}" if place else modes
+
+
 def view(d: Diff) -> dict:
-    """Sections with headers and cells, shared by the text, markdown and HTML renderers."""
+    """Sections with headers and cells, shared by the text, markdown and HTML renderers.
+
+    The cause leads: the inputs that changed, then the checks whose status changed (grouped by
+    ``grouped``), then the check values and results that moved.
+    """
     system = d.display_units
 
-    def check_row(c):
+    def check_row(g):
+        c = g[0]
         status = {"added": f"new: {c.new_status}", "removed": f"{c.old_status}: removed",
                   "moved": c.new_status, "unchanged": c.new_status}.get(c.change, f"{c.old_status} -> {c.new_status}")
-        return {"cells": [status, c.id, c.where_text or "-", _shown(c.old_value, c.kind, system),
-                          _shown(c.new_value, c.kind, system), _shown(c.limit, c.kind, system)],
+        return {"cells": [status, c.id, _group_where(g),
+                          _span([_shown(x.old_value, x.kind, system) for x in g]),
+                          _span([_shown(x.new_value, x.kind, system) for x in g]),
+                          _span([_shown(x.limit, x.kind, system) for x in g])],
                 "cls": c.regression or ("better" if c.change == "better" else c.change),
                 "message": c.message}
 
@@ -163,15 +232,17 @@ def view(d: Diff) -> dict:
     came = sum(c.change == "added" for c in quiet)
     went = len(quiet) - came
     sections = [
+        {"id": "inputs", "title": "Inputs changed (compared by physical value)", "header": INPUT_HEADER,
+         "rows": [_input_row(c, system) for c in d.input_changes], "empty": "No input changed."},
         {"id": "checks", "title": "Checks whose status changed (regressions first)", "header": CHECK_HEADER,
-         "rows": [check_row(c) for c in status_changes], "empty": "No check changed its status.",
+         "rows": [check_row(g) for g in grouped(status_changes)], "empty": "No check changed its status.",
          "note": (f"Not listed: {came} new check{'s' if came != 1 else ''} that pass{'es' if came == 1 else ''} "
                   f"and {went} passing check{'s' if went != 1 else ''} now gone (items or kinds of check "
                   "added or removed)." if quiet else "")},
         {"id": "margins", "title": "Check values that moved (status unchanged)", "header": CHECK_HEADER,
-         "rows": [check_row(c) for c in moved], "empty": "No check value moved."},
+         "rows": [check_row(g) for g in grouped(moved)], "empty": "No check value moved."},
         {"id": "still-failing", "title": "Still failing (unchanged)", "header": CHECK_HEADER,
-         "rows": [check_row(c) for c in d.still_failing], "empty": "No check fails in both revisions."},
+         "rows": [check_row(g) for g in grouped(d.still_failing)], "empty": "No check fails in both revisions."},
         {"id": "results", "title": f"Results changed (beyond {RESULT_TOLERANCE:.2%})", "header": RESULT_HEADER,
          "rows": [{"cells": [o.text, f"{ch} {o.scope.replace('_', ' ')}", "-", "-", ch, "-"], "cls": ch}
                   for o, ch in d.owners]
@@ -180,26 +251,29 @@ def view(d: Diff) -> dict:
                        f"{v.percent:+.2f} %" if v.percent is not None else "-"], "cls": v.change}
             for v in d.values],
          "empty": "No computed value moved."},
-        {"id": "inputs", "title": "Inputs changed (compared by physical value)", "header": INPUT_HEADER,
-         "rows": [_input_row(c, system) for c in d.input_changes], "empty": "No input changed."},
     ]
     for sec in sections:
         sec.setdefault("note", "")
         for row in sec["rows"]:
             row.setdefault("message", "")
-    said = [f"{c.id}, {c.where_text}: {c.message}" if c.where_text else f"{c.id}: {c.message}"
-            for c in d.regressions("warn")]
+    said = []
+    for g in grouped(d.regressions("warn")):
+        where = _group_where(g)
+        said.append(f"{g[0].id}, {where}: {g[0].message}" if where != "-" else f"{g[0].id}: {g[0].message}")
     respelled = [f"{c.dotted}: '{_raw(c.old)}' -> '{_raw(c.new)}'" for c in d.respelled]
     side = lambda s: f"{s.name}: {s.title} rev {s.revision}, {s.verdict.upper()} ({s.counts['pass']} pass, {s.counts['warn']} warn, {s.counts['fail']} fail)"  # noqa: E731
+    revision = (f"The content changed but machine.revision is still '{d.new.revision}': give this revision "
+                "its own name so reports and reviews can tell the two apart." if revision_unchanged(d) else "")
     return {"title": f"specgen diff: {d.old.name} -> {d.new.name}", "before": side(d.old), "now": side(d.new),
             "summary": _summary(d), "regressed": bool(d.regressions("warn")), "sections": sections,
             "respelled": respelled, "said": said, "caution": SHORT, "units": system,
-            "tolerance": f"{INPUT_TOLERANCE:.2%}"}
+            "tolerance": f"{INPUT_TOLERANCE:.2%}", "revision": revision, "cut": ""}
 
 
 def render_text(d: Diff) -> str:
     v = view(d)
     out = [v["title"], f"  before: {v['before']}", f"  now:    {v['now']}", v["summary"]]
+    out += [f"Note: {v['revision']}"] if v["revision"] else []
     for s in v["sections"]:
         if not s["rows"] and s["id"] in ("margins", "still-failing"):
             continue
@@ -215,55 +289,10 @@ def render_text(d: Diff) -> str:
     return "\n".join(out) + "\n"
 
 
-# Markdown a cell must not render from spec text: emphasis and strikethrough (* _ ~), code (`),
-# links and images ([ ]), math ($), table pipes (|), HTML and autolinks (< &), and, on the
-# site that shows the comment, @mentions, #123 references and bare URLs (a zero-width space, as an
-# entity, splits them without changing what a reader sees).
-_MD_ESCAPED = "\\`*_~[]$|"  # ( ) and ! form nothing once [ and ] are escaped
-_ZWSP = "&#8203;"
-
-
-def _md_cell(text: str) -> str:
-    """Cell text that cannot break a GitHub table or inject markup, mentions or links."""
-    text = " ".join(escape(" ".join(str(text).split())).split(" "))
-    text = "".join("\\" + c if c in _MD_ESCAPED else c for c in text)
-    text = text.replace("&", "&amp;").replace("<", "&lt;")
-    text = re.sub(r"(?<!&)#(?=[0-9])", "#" + _ZWSP, text)
-    text = re.sub(r"@(?=\w)", "@" + _ZWSP, text)
-    text = re.sub(r"(?i)(?<=[a-z]):(?=//)", ":" + _ZWSP, text)
-    text = re.sub(r"(?i)\b(www)\.", r"\1" + _ZWSP + ".", text)
-    if text[:1] in ("#", ">", "-", "+", "="):
-        text = "\\" + text  # a block marker where a line starts: heading, quote, list, rule
-    text = re.sub(r"^([0-9]{1,9})([.)])(?= |$)", r"\1\\\2", text)  # an ordered list item
-    return text
-
-
-def render_markdown(d: Diff) -> str:
-    v = view(d)
-    out = [f"### {_md_cell(v['title'])}", "", f"- before: {_md_cell(v['before'])}", f"- now: {_md_cell(v['now'])}",
-           "", f"**{_md_cell(v['summary'])}**"]
-    for s in v["sections"]:
-        if not s["rows"] and s["id"] in ("margins", "still-failing"):
-            continue
-        out += ["", f"#### {s['title']}", ""]
-        if not s["rows"]:
-            out += [s["empty"]] + (["", _md_cell(s["note"])] if s["note"] else [])
-            continue
-        out.append("| " + " | ".join(s["header"]) + " |")
-        out.append("|" + "|".join("---" for _ in s["header"]) + "|")
-        for r in s["rows"]:
-            cells = [_md_cell(c) for c in r["cells"]]
-            if r["cls"] in ("fail", "warn"):
-                cells[0] = f"**{cells[0]}**"
-            out.append("| " + " | ".join(cells) + " |")
-        out += ["", _md_cell(s["note"])] if s["note"] else []
-        if s["id"] == "checks" and v["said"]:
-            out += ["", "What the checks that got worse say now:", ""] + [f"- {_md_cell(x)}" for x in v["said"]]
-    if v["respelled"]:
-        out += ["", f"Same value written differently (within {v['tolerance']}), not a change: "
-                + "; ".join(_md_cell(x) for x in v["respelled"])]
-    out += ["", f"_{_md_cell(v['caution'])}_"]
-    return "\n".join(out) + "\n"
+def render_markdown(d: Diff, max_chars: int | None = MAX_CHARS) -> str:
+    """The diff as a pull-request comment of at most ``max_chars`` characters (None or 0: no limit);
+    see ``diff_markdown.render``."""
+    return diff_markdown.render(view(d), max_chars)
 
 
 def render_json(d: Diff) -> str:
@@ -284,5 +313,6 @@ def render_html(d: Diff) -> str:
 RENDERERS = {"text": render_text, "markdown": render_markdown, "json": render_json, "html": render_html}
 
 
-def render(d: Diff, fmt: str = "text") -> str:
-    return RENDERERS[fmt](d)
+def render(d: Diff, fmt: str = "text", max_chars: int | None = MAX_CHARS) -> str:
+    """``max_chars`` bounds the markdown comment only; the other formats are always whole."""
+    return render_markdown(d, max_chars) if fmt == "markdown" else RENDERERS[fmt](d)

@@ -100,5 +100,5 @@ def render(o: Outcome, quiet: bool = False, review=None) -> str:
         out += ["", "Assumed values (not given in the spec)"]
         out += [escape(f"  {a['where']} = {a['value']:g}{' ' + a['unit'] if 'unit' in a else ''}: {a['basis']}")
                 for a in assumed]
-    out += ["", SHORT] if not quiet else ([SHORT] if problems else [])
+    out += ["", SHORT] if not quiet else [SHORT]  # the caution line is never left out, quiet or not
     return "\n".join(out) + "\n"
