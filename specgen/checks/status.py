@@ -105,6 +105,12 @@ class Check:
                                           ("supply", self.supply), ("mode", self.mode)) if v]
         return ", ".join(parts)
 
+    @property
+    def name(self) -> str:
+        """The check id, where it applies and the corner it was found at, as one line."""
+        return (f"{self.id} ({self.where})" if self.where else self.id) + (
+            f" [at corner {self.corner}]" if self.corner else "")
+
 
 Fmt = Callable[[float, str], str]  # (SI value, units kind) -> text in the machine's display units
 

@@ -62,7 +62,7 @@ def lines(o: Outcome) -> list[str]:
             if c.status != status:
                 continue
             loc = o.source.location(key_path(c))
-            title = f"{c.id} ({c.where})" if c.where else c.id
+            title = c.name
             out.append(command(LEVELS[status], o.source.name, loc.line, title, c.message))
     return out
 

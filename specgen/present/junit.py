@@ -37,7 +37,7 @@ def suite(o: Outcome) -> ET.Element:
     _props(s, {"machine": o.machine.id, "title": o.machine.title, "revision": o.machine.revision,
                "verdict": o.results.verdict, "warnings": counts["warn"]})
     for c in checks:
-        name = f"{c.id} ({c.where})" if c.where else c.id
+        name = c.name
         case = ET.SubElement(s, "testcase", classname=escape(f"{o.machine.id}.{c.id}"), name=escape(name))
         shown = {"status": c.status}
         if c.value is not None:

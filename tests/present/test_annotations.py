@@ -19,9 +19,11 @@ def test_every_line_is_a_command_and_warnings_sit_at_their_duty_point_line():
     assert code == 0
     lines = out.splitlines()
     assert all(COMMAND.match(line) for line in lines)
-    # the demo harvester's four warnings; track_left's climb duty point is written at line 75
+    # the demo harvester's five warnings, one of them at its worn corner; track_left's climb duty point
+    # is written at line 75
     warnings = [line for line in lines if line.startswith("::warning")]
-    assert len(warnings) == 4
+    assert len(warnings) == 5
+    assert sum("[at corner worn]" in w for w in warnings) == 1
     text = EXAMPLE.read_text(encoding="utf-8").splitlines()
     first = warnings[0]
     line = int(re.search(r",line=(\d+),", first).group(1))
@@ -58,6 +60,7 @@ def test_spec_text_cannot_forge_a_command_or_a_property():
     class C:
         id, status, drive, duty, supply, mode = "pressure_margin", "fail", "d,line=1", None, None, None
         where = "drive d,line=1::x"
+        name = "pressure_margin (drive d,line=1::x)"
         message = "::stop-commands::tok"
 
     class Src:
