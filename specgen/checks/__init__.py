@@ -13,7 +13,7 @@ from dataclasses import replace
 from typing import TYPE_CHECKING
 
 from specgen.checks.flow_power import makeup_flow, prime_mover_power, pump_flow
-from specgen.checks.lines_heat import heat_load, line_velocity
+from specgen.checks.lines_heat import heat_load, line_velocity, oil_temperature
 from specgen.checks.motors import breakaway, displacement_choice, load_holding
 from specgen.checks.pressure import (port_pressures, pressure_margin, pressure_ratings, series_outlet_pressure,
                                      supply_pressure)
@@ -28,7 +28,7 @@ if TYPE_CHECKING:
 # (outlet, case) go drive by drive, so a drive's ratings stand together.
 CHECKS = [pressure_margin, pressure_ratings, speed_ratings, breakaway, port_pressures, load_holding,
           pump_flow, prime_mover_power, supply_pressure, displacement_choice, min_displacement_speed, line_velocity,
-          makeup_flow, heat_load, series_outlet_pressure]
+          makeup_flow, heat_load, oil_temperature, series_outlet_pressure]
 
 
 def run_checks(machine: Machine, results: Results) -> Results:

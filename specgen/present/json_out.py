@@ -48,6 +48,17 @@ def _limit(x: float | None, kind: str, system: str) -> dict | None:
     return {"value": number, "unit": unit}
 
 
+def _cycle(c, system: str) -> dict:
+    """A duty cycle's values; mean prime-mover power per supply; time share above the continuous pressure
+    rating per drive; the oil-temperature series as [seconds, temperature in display units]."""
+    return {"cycle": c.cycle, "values": {k: _value(v, system) for k, v in c.values.items()},
+            "mean_prime_mover_power": {s: dict(zip(("value", "unit"), convert(p, "power", system)))
+                                       for s, p in c.per_supply.items()},
+            "share_above_continuous_pressure": dict(c.above_continuous),
+            "oil_temperature_series": [[t, convert(x, "temperature", system)[0]] for t, x in c.series],
+            "settled": c.settled, "missing": c.missing}
+
+
 def document(o: Outcome, review=None) -> dict:
     """``review``: the spec's review.ReviewStatus; its as_dict() goes under "review" when given."""
     system = o.machine.display_units
@@ -89,12 +100,14 @@ def document(o: Outcome, review=None) -> dict:
         ],
         "modes": [{"mode": m.mode, "values": {k: _value(v, system) for k, v in m.values.items()}} for m in r.modes],
         "fluid": {k: _value(v, system) for k, v in r.fluid.values.items()},
+        **({"duty_cycles": [_cycle(c, system) for c in r.cycles]} if r.cycles else {}),
         "checks": [
             {"id": c.id, "title": c.title, "status": c.status,
              "value": _limit(c.value, c.kind, system), "limit": _limit(c.limit, c.kind, system),
              "margin": _margin(c.margin),
              "message": c.message,
-             "where": {"drive": c.drive, "duty": c.duty, "supply": c.supply, "mode": c.mode}}
+             "where": {"drive": c.drive, "duty": c.duty, "supply": c.supply, "mode": c.mode,
+                       **({"cycle": c.cycle} if c.cycle else {})}}
             for c in r.checks
         ],
         "assumed": assumed_list(r, system),

@@ -16,6 +16,7 @@ from specgen.resolve.fluid import fluid_values
 from specgen.resolve.lines import line_values
 from specgen.resolve.load import load_values
 from specgen.resolve.supply import mode_heat, resolve_supply_mode, supply_base, supply_summary
+from specgen.resolve.thermal import resolve_cycles
 from specgen.results import DutyResult, FluidResult, Results
 from specgen.intake.model import Drive, DutyPoint, Machine, Ratio, Supply
 from specgen.trace import Input, Value, given
@@ -243,6 +244,7 @@ def resolve(machine: Machine) -> Results:
             if r is not None:
                 supply_modes.append(r)
     supplies = tuple(supply_summary(s, bases[s.id], supply_modes) for s in machine.supplies)
-    modes = tuple(mode_heat(mode, supply_modes) for mode in machine.modes)
+    modes = tuple(m for m in (mode_heat(mode, supply_modes) for mode in machine.modes) if m is not None)
+    cycles = resolve_cycles(machine, modes, supply_modes, duties)
     return Results(duties=tuple(duties.values()), supply_modes=tuple(supply_modes), drives=tuple(drive_results),
-                   supplies=supplies, modes=tuple(m for m in modes if m is not None), fluid=fluid)
+                   supplies=supplies, modes=modes, fluid=fluid, cycles=cycles)
