@@ -87,7 +87,8 @@ class Warmup:
 def warmup(steps: list[tuple[float, float]], ambient: float, k_total: float, capacity: float,
            tolerance: float = 0.01, max_cycles: int = 2000) -> Warmup:
     """Repeat the cycle ``[(P_i W, t_i s), ...]`` from ambient until the temperature at the end of a
-    cycle changes by less than ``tolerance`` K from the cycle before (or ``max_cycles`` ran).
+    cycle is within ``tolerance`` K of the repeating state, judged from the cycle-to-cycle change
+    (or ``max_cycles`` ran).
 
     Each step is solved exactly (``segment_end``), so the temperature peaks at a step boundary: the
     end of a step heating toward a higher equilibrium. The series records every boundary of the first
@@ -97,6 +98,7 @@ def warmup(steps: list[tuple[float, float]], ambient: float, k_total: float, cap
     at T_eq = 333.15 K; after 10 cycles (1000 s) T = 333.15 - 40*exp(-1) = 318.43 K.
     """
     tau = time_constant(capacity, k_total)
+    r = math.exp(-sum(dt for _, dt in steps) / tau)
     t, temp = 0.0, ambient
     times, temps = [0.0], [ambient]
     peak = ambient
@@ -116,7 +118,10 @@ def warmup(steps: list[tuple[float, float]], ambient: float, k_total: float, cap
         if cycles >= detail:
             times.append(t)
             temps.append(temp)
-        if abs(temp - start) < tolerance:
+        # End-of-cycle temperatures approach the repeating state geometrically with ratio r = exp(-period/tau),
+        # so the gap left is change * r / (1 - r): a short cycle on a slow reservoir changes little per cycle
+        # while still far from settled.
+        if abs(temp - start) * r / (1.0 - r) < tolerance:
             settled = True
             break
     # The last settled cycle shown in full: its boundaries give the chart the cycle's ripple.

@@ -97,7 +97,8 @@ def oil_margin(peak: float, limit: float, ambient: float) -> tuple[float, float]
     OIL_WARN_BAND kelvin in the same fraction. Example: limit 80 degC, ambient 30 degC, oil 77 degC ->
     margin 3/50 = 0.06, band 5/50 = 0.10: warn."""
     reference = limit - ambient if limit > ambient else 1.0  # an ambient at the limit leaves no room: any oil fails
-    return (limit - peak) / reference, OIL_WARN_BAND / reference
+    gap = round(limit - peak, 9)  # kelvin to a nanokelvin: 5 K below the limit is on the band's edge, not inside
+    return gap / reference, OIL_WARN_BAND / reference
 
 
 def oil_temperature(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]:
