@@ -73,6 +73,7 @@ KINDS: dict[str, Kind] = {
         Kind("heat_transfer_coefficient", "[mass] / [time] ** 3 / [temperature]", "W/(m**2*K)", "12 W/m^2/K"),
         Kind("thermal_conductance", "[mass] * [length] ** 2 / [time] ** 3 / [temperature]", "W/K", "400 W/K"),
         Kind("heat_capacity", "[mass] * [length] ** 2 / [time] ** 2 / [temperature]", "J/K", "450 kJ/K"),
+        Kind("specific_heat", "[length] ** 2 / [time] ** 2 / [temperature]", "J/(kg*K)", "1.9 kJ/kg/K"),
     ]
 }
 
@@ -85,7 +86,7 @@ DISPLAY: dict[str, dict[str, str]] = {
         "acceleration": "m/s^2", "mass": "kg", "inertia": "kg*m^2", "time": "s",
         "angle": "deg", "viscosity": "mm^2/s", "heat": "kW", "number": "",
         "area": "m^2", "volume": "L", "temperature_difference": "K", "heat_transfer_coefficient": "W/(m^2*K)",
-        "thermal_conductance": "W/K", "heat_capacity": "kJ/K",
+        "thermal_conductance": "W/K", "heat_capacity": "kJ/K", "specific_heat": "kJ/(kg*K)",
     },
     "US": {
         "pressure": "psi", "displacement": "in^3/rev", "flow": "gpm", "speed": "rpm",
@@ -94,7 +95,7 @@ DISPLAY: dict[str, dict[str, str]] = {
         "acceleration": "ft/s^2", "mass": "lb", "inertia": "lb*ft^2", "time": "s",
         "angle": "deg", "viscosity": "cSt", "heat": "hp", "number": "",
         "area": "ft^2", "volume": "gal", "temperature_difference": "K", "heat_transfer_coefficient": "W/(m^2*K)",
-        "thermal_conductance": "W/K", "heat_capacity": "kJ/K",
+        "thermal_conductance": "W/K", "heat_capacity": "kJ/K", "specific_heat": "kJ/(kg*K)",
     },
 }
 
@@ -104,7 +105,7 @@ _PINT_SPELLING = {
     "degC": "degC", "degF": "degF", "kg/m^3": "kg/m**3", "lb/ft^3": "lb/ft**3",
     "m/s^2": "m/s**2", "ft/s^2": "ft/s**2", "kg*m^2": "kg*m**2", "lb*ft^2": "lb*ft**2",
     "mm^2/s": "mm**2/s", "cSt": "mm**2/s", "hp": "hp",
-    "m^2": "m**2", "ft^2": "ft**2", "W/(m^2*K)": "W/(m**2*K)",
+    "m^2": "m**2", "ft^2": "ft**2", "W/(m^2*K)": "W/(m**2*K)", "kJ/(kg*K)": "kJ/(kg*K)",
 }
 
 # Temperature units whose difference is read as a difference (the scale, never the offset).

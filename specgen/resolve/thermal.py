@@ -132,7 +132,10 @@ def _oil_temperature(machine: Machine, rec: Record, heat: list[tuple[float, floa
                       thermal.heat_capacity(res.oil_mass, res.steel_mass), "heat_capacity",
                       "C = m_oil * c_oil + m_steel * c_steel", "oil and reservoir steel warm together",
                       (Input("m_oil", "oil mass", res.oil_mass, "mass"),
-                       Input("m_steel", "steel mass", res.steel_mass, "mass")), SRC_CAPACITY))
+                       Input("c_oil", "specific heat of oil (from memory)", thermal.C_OIL, "specific_heat"),
+                       Input("m_steel", "steel mass", res.steel_mass, "mass"),
+                       Input("c_steel", "specific heat of steel (from memory)", thermal.C_STEEL, "specific_heat")),
+                      SRC_CAPACITY))
     rec.put(Value("time_constant", "Thermal time constant", "tau", thermal.time_constant(c, k), "time",
                   "tau = C / (k_c + k_n)", "heat capacity over the dissipation per kelvin",
                   (Input("C", "heat capacity", c, "heat_capacity"), *k_inputs), SRC_BALANCE))
