@@ -12,6 +12,7 @@ from __future__ import annotations
 from dataclasses import replace
 from typing import TYPE_CHECKING
 
+from specgen.checks.efficiency import efficiency_table
 from specgen.checks.flow_power import makeup_flow, prime_mover_power, pump_flow
 from specgen.checks.lines_heat import heat_load, line_velocity, oil_temperature
 from specgen.checks.motors import breakaway, displacement_choice, load_holding
@@ -26,7 +27,7 @@ if TYPE_CHECKING:
 
 # Report order. pressure_ratings (peak, continuous), speed_ratings (max, min) and port_pressures
 # (outlet, case) go drive by drive, so a drive's ratings stand together.
-CHECKS = [pressure_margin, pressure_ratings, speed_ratings, breakaway, port_pressures, load_holding,
+CHECKS = [pressure_margin, pressure_ratings, speed_ratings, breakaway, efficiency_table, port_pressures, load_holding,
           pump_flow, prime_mover_power, supply_pressure, displacement_choice, min_displacement_speed, line_velocity,
           makeup_flow, heat_load, oil_temperature, series_outlet_pressure]
 

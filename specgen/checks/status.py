@@ -41,6 +41,7 @@ Each check's margin, and what it is a fraction of:
     displacement_choice     (displacement used or proposed - smallest for the target pressure) / that smallest;
                             a variable motor's duty speed: (speed reached - speed needed) / speed needed
     breakaway               (breakaway torque at relief - starting torque needed) / torque needed
+    efficiency_table        None: inside or outside the maker's grid (fail outside: nothing is extrapolated)
     load_holding            None: a declaration, not a number (pass when a way to hold the load is declared)
 
 Worked example: relief 250 bar, inlet needs 260 bar: margin (250 - 260)/250 = -0.04, fail.

@@ -106,6 +106,17 @@ class Rating:
 
 
 @dataclass(frozen=True)
+class EfficiencyTable:
+    """The maker's efficiencies on a grid: rows by pressure differential (Pa), columns by speed (rev/s)."""
+
+    pressures: tuple[float, ...]  # rising
+    speeds: tuple[float, ...]  # rising
+    volumetric: tuple[tuple[float, ...], ...]  # [pressure][speed]
+    hydromechanical: tuple[tuple[float, ...], ...]
+    starting: tuple[float, ...] | None = None  # per pressure, at zero speed
+
+
+@dataclass(frozen=True)
 class Motor:
     kind: str
     model: str
@@ -118,6 +129,7 @@ class Motor:
     rating: Rating
     case_drain: bool
     target_pressure: float | None = None  # Pa, inlet pressure to size the displacement for
+    efficiency_table: EfficiencyTable | None = None
 
     @property
     def variable(self) -> bool:

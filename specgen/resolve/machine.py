@@ -12,6 +12,7 @@ from __future__ import annotations
 from specgen.calc import gearing, loads, motor, variable
 from specgen.resolve.record import Record, eff, motor_eff
 from specgen.resolve.drive import DriveSetup, setup_drive
+from specgen.resolve.efficiency import duty_efficiencies
 from specgen.resolve.fluid import fluid_values
 from specgen.resolve.lines import line_values
 from specgen.resolve.load import load_values
@@ -136,6 +137,7 @@ def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup
     if duty.id in setup.minimum_by_duty:
         rec.put(setup.minimum_by_duty[duty.id])
     vg = _displacement(rec, drive, duty, setup, n_m)
+    eta_v, eta_hm, eta_st = duty_efficiencies(rec, drive, duty, sup, t_m, n_m, vg, back_pressure(drive, sup))
     vg_in = Input("Vg", "motor displacement", vg, "displacement")
     t_in = Input("T", "motor torque", t_m, "torque")
     n_in = Input("n", "motor speed", n_m, "speed")

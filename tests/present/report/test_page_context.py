@@ -141,10 +141,13 @@ def test_accessible_structure(example):
     assert parsed.ths and all(s in ("col", "row") for s in parsed.ths)
     dupes = {i for i in parsed.ids if parsed.ids.count(i) > 1}
     assert not dupes  # ids stay unique across all the inline SVGs
-    # torque and speed per drive, flow and power per supply, and the margin overview
+    # torque and speed per drive, flow and power per supply, the margin overview, and the oil
+    # temperature of each duty cycle that has one
     rows = len(report.margin_rows(o))
     margin_parts = -(-rows // report.MARGIN_ROWS_PER_CHART)
-    assert len(parsed.figures) == 2 * len(o.machine.drives) + 2 * len(o.machine.supplies) + margin_parts
+    cycles = sum(1 for c in o.results.cycles if c.series)
+    assert len(parsed.figures) == (2 * len(o.machine.drives) + 2 * len(o.machine.supplies) + margin_parts
+                                   + cycles)
     assert all(f == {"svg": 1, "caption": 1, "alt": 1} for f in parsed.figures)
     for m in re.finditer(r'aria-labelledby="(fig\d+-alt)"', page):
         assert f'id="{m.group(1)}"' in page
