@@ -93,13 +93,14 @@ def _motor(b: Builder, m: dict, path: tuple, back_pressure: float | None) -> Mot
         hydromechanical_efficiency=b.ratio(eff, "hydromechanical", epath, ehm, basis),
         starting_efficiency=b.ratio(eff, "starting", epath, est, basis),
         rating=rating, case_drain=bool(m.get("case_drain", False)), target_pressure=target,
-        efficiency_table=_table(b, m.get("efficiency_table"), path + ("efficiency_table",)),
+        efficiency_table=build_table(b, m.get("efficiency_table"), path + ("efficiency_table",)),
     )
 
 
-def _table(b: Builder, t: dict | None, path: tuple) -> EfficiencyTable | None:
-    """The maker's efficiency grid; axes must rise and every row must hold one value per speed."""
-    if t is None:
+def build_table(b: Builder, t: dict | str | None, path: tuple) -> EfficiencyTable | None:
+    """The maker's efficiency grid; axes must rise and every row must hold one value per speed.
+    A name (a table in the sizing parts file) is looked up once the parts file is read (validate.py)."""
+    if t is None or isinstance(t, str):
         return None
     axes = {}
     for key, kind in (("pressure_differential", "pressure"), ("speed", "speed")):

@@ -250,6 +250,7 @@ class Sizing:
     series: str = "R10"
     stock: dict | None = None  # motor kind -> tuple of stocked displacements (m^3/rev), sorted
     parts_file: str = ""  # as written in the spec
+    tables: dict | None = None  # name -> EfficiencyTable, the parts file's efficiency_tables
 
 
 @dataclass(frozen=True)

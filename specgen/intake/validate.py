@@ -9,6 +9,7 @@ directions the loads decide. Every problem in a stage is reported together.
 from __future__ import annotations
 
 import re
+from dataclasses import replace
 from typing import Callable
 
 from specgen.errors import Problem, SpecError
@@ -124,6 +125,7 @@ def build(source: Source, directions: Directions, allow_outside_files: bool = Fa
         max_oil_temperature=build_max_oil_temperature(b, d),
     )
     _references(b, d)
+    model = _named_tables(b, d, model)
     model, contradictions = directions(model)
     for path, message in contradictions:
         b.fail(path, message)
@@ -131,6 +133,26 @@ def build(source: Source, directions: Directions, allow_outside_files: bool = Fa
     if b.problems:
         raise SpecError(sorted(b.problems, key=lambda p: (p.location.line, p.location.column, p.path)))
     return model
+
+
+def _named_tables(b: Builder, d: dict, model: Machine) -> Machine:
+    """Motors that name an efficiency table get it from the sizing parts file's efficiency_tables."""
+    tables = model.sizing.tables or {}
+    drives = []
+    for drive in model.drives:
+        name = d["drives"][drive.id]["motor"].get("efficiency_table")
+        if isinstance(name, str):
+            if name in tables:
+                drive = replace(drive, motor=replace(drive.motor, efficiency_table=tables[name]))
+            elif model.sizing.parts_file and model.sizing.stock is not None:
+                b.fail(("drives", drive.id, "motor", "efficiency_table"),
+                       f"parts file '{model.sizing.parts_file}' has no efficiency table '{name}'"
+                       + (f" (it has: {', '.join(tables)})" if tables else ""))
+            elif not model.sizing.parts_file:
+                b.fail(("drives", drive.id, "motor", "efficiency_table"),
+                       f"efficiency table '{name}' is named, but the spec gives no sizing.parts_file to find it in")
+        drives.append(drive)
+    return replace(model, drives=tuple(drives))
 
 
 def _references(b: Builder, d: dict) -> None:

@@ -93,3 +93,25 @@ def test_specs_without_tables_do_not_import_the_interpolation():
     out = subprocess.run([sys.executable, "-c", code], cwd=ROOT, capture_output=True, text=True,
                          env={"PYTHONPATH": str(ROOT)})
     assert out.stderr.strip().endswith("False")
+
+
+def test_a_table_named_from_the_parts_file_gives_the_same_results_as_inline(tmp_path):
+    import yaml
+
+    from helpers import run_cli, write_spec
+    from specgen.pipeline import run_file
+
+    parts = {"format": 1, "motors": {"axial_piston": ["100 cm^3"]}, "efficiency_tables": {"ap100": TABLE}}
+    (tmp_path / "stock.parts.yaml").write_text(yaml.safe_dump(parts, sort_keys=False), encoding="utf-8")
+    d = with_table("ap100")
+    d["sizing"] = {"parts_file": "stock.parts.yaml"}
+    named = run_file(write_spec(tmp_path, d)).results.duty("hoist", "lift")
+    inline = duty(with_table())
+    assert named["pressure_differential"] == inline["pressure_differential"]
+    assert named["breakaway_torque"] == inline["breakaway_torque"]
+    d["drives"]["hoist"]["motor"]["efficiency_table"] = "ap999"
+    code, _, err = run_cli("check", write_spec(tmp_path, d))
+    assert code == 2 and "has no efficiency table 'ap999' (it has: ap100)" in err
+    del d["sizing"]
+    code, _, err = run_cli("check", write_spec(tmp_path, d))
+    assert code == 2 and "gives no sizing.parts_file" in err
