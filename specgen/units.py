@@ -254,7 +254,6 @@ def _is_plain_number(name: str) -> bool:
     return str(q.units) != "percent"
 
 
-@lru_cache(maxsize=4096)
 def parse(text: object, kind_name: str) -> float:
     """Read ``text`` (e.g. "3625 psi") as a quantity of ``kind_name``; return the SI float.
 
@@ -262,9 +261,15 @@ def parse(text: object, kind_name: str) -> float:
     mistake in writing it (see the grammar in the module text). Ratios may be plain numbers
     (0.92) or percentages ("92 %").
     """
-    kind = KINDS[kind_name]
-    if isinstance(text, bool):
+    if isinstance(text, bool):  # refused before the cache: True == 1 would find a cached 1
+        kind = KINDS[kind_name]
         raise UnitProblem(f"expected {kind.name} such as '{kind.example}', got {text!r}")
+    return _parse(text, kind_name)
+
+
+@lru_cache(maxsize=4096)
+def _parse(text: object, kind_name: str) -> float:
+    kind = KINDS[kind_name]
     if isinstance(text, (int, float)):
         if kind.name == "ratio":
             try:
