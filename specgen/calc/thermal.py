@@ -81,7 +81,8 @@ class Warmup:
     temperatures: tuple[float, ...]  # K at each time
     peak: float  # K, highest temperature reached
     cycles: int  # cycles run
-    settled: bool  # the cycle-to-cycle change fell below the tolerance before the cap
+    settled: bool  # the cycle-to-cycle change fell below the tolerance before the cap (when it did not,
+    # ``peak`` is still the repeating cycle's, found from the last cycle's linear map)
 
 
 def warmup(steps: list[tuple[float, float]], ambient: float, k_total: float, capacity: float,
@@ -131,6 +132,13 @@ def warmup(steps: list[tuple[float, float]], ambient: float, k_total: float, cap
         peak = max(peak, temp)
         times.append(t)
         temps.append(temp)
+    if not settled and r < 1.0:
+        # Capped before settling: the cycle maps its start to its end linearly (end = r*start + b), so the
+        # repeating cycle starts at b / (1 - r); its peak is taken, though the series stops short of it.
+        periodic = (temp - r * temps[-1 - len(steps)]) / (1.0 - r)
+        for p, dt in steps:
+            periodic = segment_end(periodic, ambient + p / k_total, dt, tau)
+            peak = max(peak, periodic)
     return Warmup(tuple(times), tuple(temps), peak, cycles, settled)
 
 

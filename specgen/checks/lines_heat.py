@@ -114,7 +114,7 @@ def oil_temperature(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Ch
         peak = max(c["peak_temperature"], c["steady_temperature"])
         margin, band = oil_margin(peak, limit, machine.ambient_temperature)
         st = status(margin, band)
-        settled = "" if c.settled else " (the warm-up had not settled when the count of cycles ran out)"
+        settled = "" if c.settled else " (the repeating cycle's peak; the warm-up from ambient is longer than charted)"
         yield Check("oil_temperature", title, st, peak, limit, "temperature",
                     f"The oil reaches {fmt(peak, 'temperature')} (steady {fmt(c['steady_temperature'], 'temperature')})"
                     f"{settled} against the limit of {fmt(limit, 'temperature')}"

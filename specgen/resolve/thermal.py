@@ -144,7 +144,7 @@ def _oil_temperature(machine: Machine, rec: Record, heat: list[tuple[float, floa
                   "T = T_eq + (T0 - T_eq) * exp(-t/tau) per step, T_eq = T_amb + Q_i / (k_c + k_n)",
                   f"highest temperature over {w.cycles} repeated cycles from ambient",
                   (amb_in, Input("C", "heat capacity", c, "heat_capacity"), *k_inputs), SRC_BALANCE,
-                  note="" if w.settled else f"not settled after {w.cycles} cycles"))
+                  note="" if w.settled else f"repeating cycle's peak; the series stops after {w.cycles} cycles"))
     return tuple(zip(w.times, w.temperatures)), w.settled
 
 

@@ -66,6 +66,12 @@ def test_warmup_stops_at_the_cap_and_says_so():
     # tau = 1e6 s against a 10 s cycle: 3 cycles cannot settle
     w = thermal.warmup([(1000.0, 10.0)], AMB, 1.0, 1e6, max_cycles=3)
     assert not w.settled and w.cycles == 3
+    # the peak is still the repeating cycle's: a constant 1000 W over k = 1 W/K settles 1000 K over ambient
+    assert w.peak == pytest.approx(AMB + 1000.0, rel=1e-9)
+    assert max(w.temperatures) < AMB + 1.0  # while the series itself has hardly started
+    # the on/off cycle capped early still gives the periodic peak 14.338 K (hand calculation above)
+    capped = thermal.warmup([(5000.0, 200.0), (0.0, 800.0)], AMB, 100.0, 1e5, max_cycles=1)
+    assert not capped.settled and capped.peak - AMB == pytest.approx(14.338, abs=1e-3)
     assert w.times == tuple(sorted(w.times)) and w.times[0] == 0.0 and w.temperatures[0] == AMB
 
 
