@@ -254,6 +254,11 @@ def _is_plain_number(name: str) -> bool:
     return str(q.units) != "percent"
 
 
+# A heat transfer coefficient as data sheets print it, "W/(m^2*K)": the one bracket the grammar
+# takes, rewritten to "W/m^2/K" before the grammar sees it (nothing else in brackets is read).
+_PER_PRODUCT = re.compile(r"/\(\s*([^()*·\s]+)\s*[*·\s]\s*([^()*·\s]+)\s*\)\s*$")
+
+
 def parse(text: object, kind_name: str) -> float:
     """Read ``text`` (e.g. "3625 psi") as a quantity of ``kind_name``; return the SI float.
 
@@ -264,6 +269,8 @@ def parse(text: object, kind_name: str) -> float:
     if isinstance(text, bool):  # refused before the cache: True == 1 would find a cached 1
         kind = KINDS[kind_name]
         raise UnitProblem(f"expected {kind.name} such as '{kind.example}', got {text!r}")
+    if kind_name == "heat_transfer_coefficient" and isinstance(text, str):
+        text = _PER_PRODUCT.sub(r"/\1/\2", text)
     return _parse(text, kind_name)
 
 
