@@ -96,6 +96,7 @@ def build_reservoir(b: Builder, raw: dict | None, fluid: Fluid | None) -> Reserv
         h = Ratio(b.quantity(raw, "heat_transfer_coefficient", path, "heat_transfer_coefficient"))
     else:
         h = Ratio(defaults.HEAT_TRANSFER_STILL_AIR, assumed=True, basis=H_BASIS)
-    return Reservoir(surface_area=b.quantity(raw, "surface_area", path, "area"), oil_mass=oil_mass,
-                     steel_mass=b.quantity(raw, "steel_mass", path, "mass", sign="nonnegative"),
+    return Reservoir(surface_area=b.quantity(raw, "surface_area", path, "area", sign="nonnegative", default=0.0),
+                     oil_mass=oil_mass,
+                     steel_mass=b.quantity(raw, "steel_mass", path, "mass", sign="nonnegative", default=0.0),
                      heat_transfer_coefficient=h)

@@ -115,6 +115,8 @@ def _oil_temperature(machine: Machine, rec: Record, heat: list[tuple[float, floa
         k_terms.append(k_n)
         k_inputs.append(Input("k_n", "natural dissipation per kelvin", k_n, "thermal_conductance"))
     k = sum(k_terms)
+    if k <= 0:
+        return NO_COOLING
     t_ss = rec.put(Value("steady_temperature", "Steady oil temperature", "T_ss",
                          thermal.steady_temperature(amb, p_mean, k), "temperature", "T_ss = T_amb + Q_mean / (k_c + k_n)",
                          "ambient plus the mean heat over the dissipation per kelvin",

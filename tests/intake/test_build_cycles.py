@@ -76,3 +76,13 @@ def test_duration_and_share_together_are_refused(tmp_path):
     d = copy.deepcopy(CRANE)
     d["duty_cycles"]["container_moves"]["steps"][0]["duration"] = "30 s"
     assert "duty_cycles.container_moves.steps.0" in refused(tmp_path, d)
+
+
+def test_a_reservoir_of_oil_alone():
+    d = copy.deepcopy(CRANE)
+    d["reservoir"] = {"oil_mass": "200 kg"}
+    m = machine(d)
+    assert (m.reservoir.oil_mass, m.reservoir.steel_mass, m.reservoir.surface_area) == (200.0, 0.0, 0.0)
+    # hand calculation: C = 200 kg * 1900 J/(kg*K) = 380 kJ/K; only the cooler dissipates: k = 250 W/K
+    c = evaluate(Source("mem.yaml", d, b"")).results.cycle_result("container_moves")
+    assert c["heat_capacity"] == pytest.approx(380000.0) and c["time_constant"] == pytest.approx(1520.0)

@@ -92,3 +92,15 @@ def test_without_the_rated_temperature_difference_the_oil_check_warns():
     assert c.status == "warn" and c.margin is None
     assert "entering_temperature_difference" in c.message
     assert [x.status for x in spec_checks(d, "heat_load", cycle="container_moves")] == ["pass"]
+
+
+def test_natural_dissipation_alone_and_no_dissipation_at_all():
+    d = crane()
+    del d["cooler"]
+    c = results(d).cycle_result("container_moves")
+    # hand calculation: only h*A = 12 * 2.4 = 28.8 W/K; T_ss = 30 degC + Q_mean / 28.8
+    assert c["steady_temperature"] == pytest.approx(303.15 + c["mean_heat_load"] / 28.8)
+    assert [x.status for x in spec_checks(d, "oil_temperature")] == ["fail"]  # 5 kW on a bare tank boils
+    d["reservoir"] = {"oil_volume": "160 L"}
+    (w,) = spec_checks(d, "oil_temperature")
+    assert w.status == "warn" and "needs a cooler" in w.message
