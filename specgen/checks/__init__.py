@@ -2,7 +2,8 @@
 
 A check reads computed results and the model's ratings and thresholds; it never recomputes a
 relation. One status rule and one order of severity for all of them: checks/status.py. Topics:
-pressure.py, speed.py, flow_power.py, lines_heat.py, motors.py (sizing and motors).
+pressure.py, speed.py, flow_power.py, lines_heat.py (lines, heat, oil temperature), motors.py (sizing and
+motors), efficiency.py (duty points against a maker's efficiency table).
 To add a check: write a function taking (machine, results, fmt) and yielding Check records with
 their margin, and list it in CHECKS (DEVELOPERS.md has the details).
 """

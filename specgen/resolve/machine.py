@@ -2,8 +2,9 @@
 
 Order: fluid properties -> each supply's pump (speed, full delivery) -> each drive: load model,
 motor torque and speed, then the displacement (given, proposed from a target pressure, or set by
-a variable motor's control), flow, line losses and pressures -> each supply in each mode
-(circuit, pump, prime mover, heat) -> each mode's heat load.
+a variable motor's control), the efficiencies (constant, or from the maker's table: resolve/efficiency.py),
+flow, line losses and pressures -> each supply in each mode (circuit, pump, prime mover, heat) -> each
+mode's heat load -> each duty cycle's heat, power and oil temperature (resolve/thermal.py).
 Pure: takes the model's SI floats, returns Results; no I/O, no pint.
 """
 
