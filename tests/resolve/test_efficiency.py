@@ -9,7 +9,7 @@ import sys
 
 import pytest
 
-from helpers import ROOT, minimal, spec_check
+from helpers import ROOT, minimal
 from specgen.intake.read import Source
 from specgen.pipeline import evaluate
 
@@ -54,25 +54,6 @@ def test_breakaway_differs_from_the_constant_twin_and_the_trace_says_why():
     start_input = next(i for i in table.values["breakaway_torque"].inputs if i.symbol == "eta_start")
     assert start_input.value == pytest.approx(0.809) and not start_input.assumed
     assert table.values["table_starting_efficiency"].note == "from table at 245 bar, 0 rpm"
-
-
-def test_outside_the_table_fails_and_uses_the_constant_efficiencies():
-    d = with_table(speed="1500 rpm")  # beyond the 1000 rpm column
-    c = spec_check(d, "efficiency_table", drive="hoist", duty="lift")
-    assert c.status == "fail" and "outside the maker's table at" in c.message and "1500 rpm" in c.message
-    r = duty(d)
-    # constant eta_hm 0.9: dp = 2*pi*286.5 / (1e-4 * 0.9) = 200.02 bar
-    assert r["pressure_differential"] == pytest.approx(2 * 3.141592653589793 * 286.5 / 0.9e-4)
-
-
-def test_inside_the_table_passes():
-    assert spec_check(with_table(), "efficiency_table", drive="hoist", duty="lift").status == "pass"
-
-
-def test_breakaway_outside_the_starting_row_warns():
-    t = dict(TABLE, pressure_differential=["100 bar", "200 bar", "240 bar"])  # relief less back pressure is 245 bar
-    c = spec_check(with_table(t), "efficiency_table", drive="hoist", duty="lift")
-    assert c.status == "warn" and "starting row at 245 bar" in c.message
 
 
 def test_a_badly_shaped_table_is_refused(tmp_path):
