@@ -74,8 +74,8 @@ def solve_differential(pressures, speeds, volumetric, hydromechanical, torque: f
                        n: float, overrunning: bool = False) -> Solved:
     """Fixed-point iteration of dp = 2*pi*T / (Vg * eta_hm(dp, n)) (overrunning: dp = 2*pi*T*eta_hm / Vg).
 
-    Starts from the lossless differential 2*pi*T/Vg (brought inside the grid's pressures); eta_hm changes slowly with dp, so a few steps
-    settle it. Stops after MAX_ITERATIONS (``converged`` False) or when the point leaves the grid
+    Starts from the lossless differential 2*pi*T/Vg (brought inside the grid's pressures); eta_hm
+    changes slowly with dp, so a few steps settle it. Stops after MAX_ITERATIONS (``converged`` False) or when the point leaves the grid
     (``point.inside`` False, at the differential that left it). Source: motor torque relation
     T = Vg*dp*eta_hm/(2*pi) (fluid-power textbook). Example: Vg 100 cm^3/rev, T 300 N*m, a table with
     eta_hm 0.9 everywhere -> dp = 2*pi*300 / (1e-4 * 0.9) = 209.4 bar after two steps.

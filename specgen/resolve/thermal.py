@@ -9,7 +9,7 @@ from __future__ import annotations
 
 from specgen.calc import thermal
 from specgen.intake.model import DutyCycle, Machine
-from specgen.resolve.record import Record, eff
+from specgen.resolve.record import Record
 from specgen.results import CycleResult, DutyResult, ModeResult, SupplyModeResult
 from specgen.trace import Input, Value, indexed
 
@@ -107,7 +107,8 @@ def _oil_temperature(machine: Machine, rec: Record, heat: list[tuple[float, floa
     if res is not None:
         h = res.heat_transfer_coefficient
         k_n = rec.put(Value("natural_coefficient", "Natural dissipation per kelvin", "k_n",
-                            thermal.natural_coefficient(res.surface_area, h.value), "thermal_conductance", "k_n = h * A",
+                            thermal.natural_coefficient(res.surface_area, h.value), "thermal_conductance",
+                            "k_n = h * A",
                             "still-air heat transfer over the reservoir's surface",
                             (Input("h", "heat transfer coefficient", h.value, "heat_transfer_coefficient", h.assumed,
                                    ("reservoir", "heat_transfer_coefficient") if h.assumed else (), h.basis),
@@ -117,18 +118,18 @@ def _oil_temperature(machine: Machine, rec: Record, heat: list[tuple[float, floa
     k = sum(k_terms)
     if k <= 0:
         return NO_COOLING
-    t_ss = rec.put(Value("steady_temperature", "Steady oil temperature", "T_ss",
-                         thermal.steady_temperature(amb, p_mean, k), "temperature", "T_ss = T_amb + Q_mean / (k_c + k_n)",
-                         "ambient plus the mean heat over the dissipation per kelvin",
-                         (amb_in, Input("Q_mean", "mean heat load", p_mean, "power"), *k_inputs), SRC_BALANCE))
+    rec.put(Value("steady_temperature", "Steady oil temperature", "T_ss", thermal.steady_temperature(amb, p_mean, k),
+                  "temperature", "T_ss = T_amb + Q_mean / (k_c + k_n)",
+                  "ambient plus the mean heat over the dissipation per kelvin",
+                  (amb_in, Input("Q_mean", "mean heat load", p_mean, "power"), *k_inputs), SRC_BALANCE))
     if res is None:
         # Without a heat capacity the oil follows each step at once: the hottest step's equilibrium.
-        peak = rec.put(Value("peak_temperature", "Peak oil temperature", "T_peak",
-                             thermal.steady_temperature(amb, max(q for q, _ in heat), k), "temperature",
-                             "T_peak = T_amb + Q_peak / (k_c + k_n)",
-                             "no reservoir given: no heat capacity, the oil settles at each step's equilibrium",
-                             (amb_in, Input("Q_peak", "peak heat load", max(q for q, _ in heat), "power"), *k_inputs),
-                             SRC_BALANCE, note="no reservoir: heat capacity not known"))
+        q_peak = max(q for q, _ in heat)
+        rec.put(Value("peak_temperature", "Peak oil temperature", "T_peak", thermal.steady_temperature(amb, q_peak, k),
+                      "temperature", "T_peak = T_amb + Q_peak / (k_c + k_n)",
+                      "no reservoir given: no heat capacity, the oil settles at each step's equilibrium",
+                      (amb_in, Input("Q_peak", "peak heat load", q_peak, "power"), *k_inputs),
+                      SRC_BALANCE, note="no reservoir: heat capacity not known"))
         return (), True
     c = rec.put(Value("heat_capacity", "Heat capacity of oil and steel", "C",
                       thermal.heat_capacity(res.oil_mass, res.steel_mass), "heat_capacity",

@@ -104,3 +104,13 @@ def test_natural_dissipation_alone_and_no_dissipation_at_all():
     d["reservoir"] = {"oil_volume": "160 L"}
     (w,) = spec_checks(d, "oil_temperature")
     assert w.status == "warn" and "needs a cooler" in w.message
+
+
+def test_without_a_reservoir_the_peak_is_the_hottest_steps_equilibrium():
+    d = crane()
+    del d["reservoir"]
+    r = results(d)
+    c = r.cycle_result("container_moves")
+    # hand calculation: k = 10 kW / 40 K = 250 W/K; T_peak = 30 degC + Q_hoisting / 250
+    assert c["peak_temperature"] == pytest.approx(303.15 + r.mode_result("hoisting")["heat_load"] / 250.0)
+    assert c.series == () and "heat_capacity" not in c.values
