@@ -95,8 +95,9 @@ def generate(demo: dict, n_drives: int, n_modes: int, max_supplies: int = 50) ->
     n_groups = -(-n_drives // len(kinds))
     sets = min(n_groups, max(1, max_supplies // len(demo["supplies"])))
     share = -(-n_groups // _lcm(sets, MODE_SETS))  # most groups on one supply copy in one mode
-    # the demo's corners name its own modes: the generated machine has none
-    data = {k: copy.deepcopy(v) for k, v in demo.items() if k not in ("supplies", "drives", "modes", "corners")}
+    # the demo's corners and duty cycles name its own modes: the generated machine has none
+    data = {k: copy.deepcopy(v) for k, v in demo.items()
+            if k not in ("supplies", "drives", "modes", "corners", "duty_cycles")}
     data["machine"]["id"] = f"{demo['machine']['id']}-x{n_drives}"
     data["machine"]["title"] = f"Generated benchmark machine: {n_drives} drives, {n_modes} modes (demo data)"
     data["supplies"], data["drives"], data["modes"] = {}, {}, {}
@@ -125,6 +126,12 @@ def generate(demo: dict, n_drives: int, n_modes: int, max_supplies: int = 50) ->
             first = next(iter(data["drives"].items()))
             running = {first[0]: next(iter(first[1]["duty_points"]))}
         data["modes"][f"mode_{m:03d}"] = {"title": f"{template.get('title', 'Mode')} [set {m}]", "drives": running}
+    # The demo's duty cycles run on the first generated mode made from each of their modes' templates.
+    first = {mid: f"mode_{i:03d}" for i, mid in enumerate(demo["modes"]) if i < n_modes}
+    cycles = {cid: {**c, "steps": [{**s, "mode": first[s["mode"]]} for s in c["steps"]]}
+              for cid, c in demo.get("duty_cycles", {}).items() if all(s["mode"] in first for s in c["steps"])}
+    if cycles:
+        data["duty_cycles"] = copy.deepcopy(cycles)
     return data
 
 

@@ -13,7 +13,8 @@ from functools import cached_property
 from specgen.checks.status import SEVERITY, Check, most_severe
 from specgen.trace import Input, Value
 
-__all__ = ["Check", "Contribution", "CornerResult", "DriveResult", "DutyResult", "FluidResult", "ModeResult", "Results",
+__all__ = ["Check", "Contribution", "CornerResult", "CycleResult", "DriveResult", "DutyResult", "FluidResult",
+           "ModeResult", "Results",
            "SupplyModeResult", "SupplyResult"]
 
 
@@ -131,11 +132,32 @@ class CornerResult:
         return most_severe(c.status for c in self.checks)
 
 
+@dataclass(frozen=True)
+class CycleResult(_ValuesByKey):
+    """A duty cycle repeated without end: mean and peak heat, mean prime-mover power per supply, the share
+    of the cycle each running drive spends above its continuous pressure rating, and the oil temperature.
+
+    ``values``: the cycle's own (heat, dissipation, temperatures) in the order computed; ``per_supply``:
+    supply id -> mean prime-mover power (W); ``above_continuous``: drive id -> time share above the motor's
+    continuous pressure rating (only drives with a rating); ``series``: (time s, oil temperature K) pairs
+    of the warm-up from ambient, for the chart (empty without an oil-temperature model); ``settled``: the
+    warm-up reached a repeating cycle before its cap; ``missing``: why no oil temperature was computed.
+    """
+
+    cycle: str
+    values: dict[str, Value]
+    per_supply: dict[str, float] = field(default_factory=dict)
+    above_continuous: dict[str, float] = field(default_factory=dict)
+    series: tuple[tuple[float, float], ...] = ()
+    settled: bool = True
+    missing: str = ""
+
+
 # The order assumed values are listed in within one supply, drive or the fluid: the spec's own order.
 ASSUMED_FIELDS = (("pump", "volumetric_efficiency"), ("pump", "overall_efficiency"),
                   ("motor", "efficiency", "volumetric"), ("motor", "efficiency", "hydromechanical"),
                   ("motor", "efficiency", "starting"), ("gear_stage", "efficiency"),
-                  ("viscosity_100c",), ("density",))
+                  ("viscosity_100c",), ("density",), ("heat_transfer_coefficient",), ("max_oil_temperature",))
 _OWNED = ("supplies", "drives")  # spec sections whose second key is an id
 
 
@@ -149,6 +171,10 @@ class Results:
     modes: tuple[ModeResult, ...] = ()
     fluid: FluidResult = field(default_factory=FluidResult)
     corners: tuple[CornerResult, ...] = ()  # each corner's checks; ``checks`` holds each at its worst
+    cycles: tuple[CycleResult, ...] = ()
+
+    def cycle_result(self, cycle: str) -> CycleResult | None:
+        return next((c for c in self.cycles if c.cycle == cycle), None)
 
     def drive_result(self, drive: str) -> DriveResult | None:
         return self._drives_by_id.get(drive)
@@ -235,6 +261,8 @@ class Results:
         for m in self.modes:
             yield m.values.values()
         yield self.fluid.values.values()
+        for c in self.cycles:
+            yield c.values.values()
 
     def counts(self) -> dict[str, int]:
         out = dict.fromkeys(SEVERITY, 0)

@@ -67,6 +67,13 @@ KINDS: dict[str, Kind] = {
         Kind("angle", "", "radian", "5 deg", angle_exponent=1),
         Kind("viscosity", "[length] ** 2 / [time]", "m**2/s", "46 mm^2/s"),
         Kind("number", "", "dimensionless", "2300"),  # a plain count or group (layers, Reynolds number)
+        Kind("area", "[length] ** 2", "m**2", "2.5 m^2"),
+        Kind("volume", "[length] ** 3", "m**3", "400 L"),
+        Kind("temperature_difference", "[temperature]", "K", "40 K"),
+        Kind("heat_transfer_coefficient", "[mass] / [time] ** 3 / [temperature]", "W/(m**2*K)", "12 W/m^2/K"),
+        Kind("thermal_conductance", "[mass] * [length] ** 2 / [time] ** 3 / [temperature]", "W/K", "400 W/K"),
+        Kind("heat_capacity", "[mass] * [length] ** 2 / [time] ** 2 / [temperature]", "J/K", "450 kJ/K"),
+        Kind("specific_heat", "[length] ** 2 / [time] ** 2 / [temperature]", "J/(kg*K)", "1.9 kJ/kg/K"),
     ]
 }
 
@@ -78,6 +85,8 @@ DISPLAY: dict[str, dict[str, str]] = {
         "density": "kg/m^3", "force": "kN", "length": "mm", "velocity": "m/s",
         "acceleration": "m/s^2", "mass": "kg", "inertia": "kg*m^2", "time": "s",
         "angle": "deg", "viscosity": "mm^2/s", "heat": "kW", "number": "",
+        "area": "m^2", "volume": "L", "temperature_difference": "K", "heat_transfer_coefficient": "W/(m^2*K)",
+        "thermal_conductance": "W/K", "heat_capacity": "kJ/K", "specific_heat": "kJ/(kg*K)",
     },
     "US": {
         "pressure": "psi", "displacement": "in^3/rev", "flow": "gpm", "speed": "rpm",
@@ -85,6 +94,8 @@ DISPLAY: dict[str, dict[str, str]] = {
         "density": "lb/ft^3", "force": "lbf", "length": "in", "velocity": "ft/s",
         "acceleration": "ft/s^2", "mass": "lb", "inertia": "lb*ft^2", "time": "s",
         "angle": "deg", "viscosity": "cSt", "heat": "hp", "number": "",
+        "area": "ft^2", "volume": "gal", "temperature_difference": "K", "heat_transfer_coefficient": "W/(m^2*K)",
+        "thermal_conductance": "W/K", "heat_capacity": "kJ/K", "specific_heat": "kJ/(kg*K)",
     },
 }
 
@@ -94,7 +105,11 @@ _PINT_SPELLING = {
     "degC": "degC", "degF": "degF", "kg/m^3": "kg/m**3", "lb/ft^3": "lb/ft**3",
     "m/s^2": "m/s**2", "ft/s^2": "ft/s**2", "kg*m^2": "kg*m**2", "lb*ft^2": "lb*ft**2",
     "mm^2/s": "mm**2/s", "cSt": "mm**2/s", "hp": "hp",
+    "m^2": "m**2", "ft^2": "ft**2", "W/(m^2*K)": "W/(m**2*K)", "kJ/(kg*K)": "kJ/(kg*K)",
 }
+
+# Temperature units whose difference is read as a difference (the scale, never the offset).
+_DELTA = {"K": 1.0, "degC": 1.0, "°C": 1.0, "kelvin": 1.0, "degF": 5.0 / 9.0, "°F": 5.0 / 9.0}
 
 # Units that have the dimension of torque but mean energy: refused for torque fields.
 _ENERGY_UNITS = {"joule", "watt_hour", "calorie", "british_thermal_unit", "electron_volt", "erg",
@@ -257,7 +272,11 @@ def _is_plain_number(name: str) -> bool:
     return str(q.units) != "percent"
 
 
-@lru_cache(maxsize=4096)
+# A heat transfer coefficient as data sheets print it, "W/(m^2*K)": the one bracket the grammar
+# takes, rewritten to "W/m^2/K" before the grammar sees it (nothing else in brackets is read).
+_PER_PRODUCT = re.compile(r"/\(\s*([^()*·\s]+)\s*[*·\s]\s*([^()*·\s]+)\s*\)\s*$")
+
+
 def parse(text: object, kind_name: str) -> float:
     """Read ``text`` (e.g. "3625 psi") as a quantity of ``kind_name``; return the SI float.
 
@@ -265,9 +284,17 @@ def parse(text: object, kind_name: str) -> float:
     mistake in writing it (see the grammar in the module text). Ratios may be plain numbers
     (0.92) or percentages ("92 %").
     """
-    kind = KINDS[kind_name]
-    if isinstance(text, bool):
+    if isinstance(text, bool):  # refused before the cache: True == 1 would find a cached 1
+        kind = KINDS[kind_name]
         raise UnitProblem(f"expected {kind.name} such as '{kind.example}', got {text!r}")
+    if kind_name == "heat_transfer_coefficient" and isinstance(text, str):
+        text = _PER_PRODUCT.sub(r"/\1/\2", text)
+    return _parse(text, kind_name)
+
+
+@lru_cache(maxsize=4096)
+def _parse(text: object, kind_name: str) -> float:
+    kind = KINDS[kind_name]
     if isinstance(text, (int, float)):
         if kind.name == "ratio":
             try:
@@ -280,6 +307,8 @@ def parse(text: object, kind_name: str) -> float:
     if not isinstance(text, str) or not text.strip():
         raise UnitProblem(f"expected {kind.name} such as '{kind.example}', got {text!r}")
     number, unit = _split(text, kind)
+    if kind.name == "temperature_difference" and unit in _DELTA:  # 40 degC of difference is 40 K, not 313 K
+        return number * _DELTA[unit]
     if kind.name == "temperature":
         return _parse_temperature(text, number, unit)
     quick = _number_times_unit(number, unit, kind.name, text)

@@ -8,7 +8,7 @@ import pytest
 from helpers import minimal, run_cli, write_spec
 
 from specgen.errors import Location, Problem
-from specgen.present import diff_out
+from specgen.present import diff_markdown
 from specgen.safe_text import clip, escape
 
 
@@ -97,7 +97,7 @@ def test_a_key_with_a_trailing_line_break_is_not_an_id(tmp_path):
     ("\x1b[31m", ["\x1b"]),
 ])
 def test_markdown_cells_render_nothing_from_spec_text(text, bad):
-    cell = diff_out._md_cell(text)
+    cell = diff_markdown._md_cell(text)
     for pattern in bad:
         assert not re.search(pattern, cell), (pattern, cell)
 

@@ -95,3 +95,23 @@ def test_significant_never_uses_exponents():
     assert units.significant(123456.0) == "123456"
     assert units.significant(0.000123456) == "0.0001235"
     assert units.significant(0.0) == "0"
+
+
+@pytest.mark.parametrize("text", ["12 W/m^2/K", "12 W/(m^2*K)", "12 W/(m^2 K)", "12 W/(m²·K)"])
+def test_heat_transfer_coefficient_as_data_sheets_print_it(text):
+    assert units.parse(text, "heat_transfer_coefficient") == pytest.approx(12.0)
+
+
+def test_a_temperature_difference_in_degrees_is_a_difference():
+    # 40 degC of difference is 40 K; 72 degF of difference is 72 * 5/9 = 40 K (definition of the scales)
+    assert units.parse("40 degC", "temperature_difference") == pytest.approx(40.0)
+    assert units.parse("72 degF", "temperature_difference") == pytest.approx(40.0)
+    assert units.parse("40 K", "temperature_difference") == pytest.approx(40.0)
+    with pytest.raises(units.UnitProblem):
+        units.parse("12 W/(m^2*K)", "power")
+
+
+def test_a_boolean_is_refused_even_after_a_cached_one():
+    assert units.parse(1, "ratio") == 1.0
+    with pytest.raises(units.UnitProblem, match="expected ratio"):
+        units.parse(True, "ratio")

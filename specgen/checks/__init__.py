@@ -2,7 +2,8 @@
 
 A check reads computed results and the model's ratings and thresholds; it never recomputes a
 relation. One status rule and one order of severity for all of them: checks/status.py. Topics:
-pressure.py, speed.py, flow_power.py, lines_heat.py, motors.py (sizing and motors).
+pressure.py, speed.py, flow_power.py, lines_heat.py (lines, heat, oil temperature), motors.py (sizing and
+motors), efficiency.py (duty points against a maker's efficiency table).
 To add a check: write a function taking (machine, results, fmt) and yielding Check records with
 their margin, and list it in CHECKS (DEVELOPERS.md has the details).
 """
@@ -12,8 +13,9 @@ from __future__ import annotations
 from dataclasses import replace
 from typing import TYPE_CHECKING
 
+from specgen.checks.efficiency import efficiency_table
 from specgen.checks.flow_power import makeup_flow, prime_mover_power, pump_flow
-from specgen.checks.lines_heat import heat_load, line_velocity
+from specgen.checks.lines_heat import heat_load, line_velocity, oil_temperature
 from specgen.checks.motors import breakaway, displacement_choice, load_holding
 from specgen.checks.pressure import (port_pressures, pressure_margin, pressure_ratings, series_outlet_pressure,
                                      supply_pressure)
@@ -26,9 +28,9 @@ if TYPE_CHECKING:
 
 # Report order. pressure_ratings (peak, continuous), speed_ratings (max, min) and port_pressures
 # (outlet, case) go drive by drive, so a drive's ratings stand together.
-CHECKS = [pressure_margin, pressure_ratings, speed_ratings, breakaway, port_pressures, load_holding,
+CHECKS = [pressure_margin, pressure_ratings, speed_ratings, breakaway, efficiency_table, port_pressures, load_holding,
           pump_flow, prime_mover_power, supply_pressure, displacement_choice, min_displacement_speed, line_velocity,
-          makeup_flow, heat_load, series_outlet_pressure]
+          makeup_flow, heat_load, oil_temperature, series_outlet_pressure]
 
 
 def run_checks(machine: Machine, results: Results) -> Results:

@@ -32,10 +32,16 @@ Each check's margin, and what it is a fraction of:
                             the failing velocity being 1.5 times the rule-of-thumb upper limit, so the
                             warning band 1/3 starts at the upper limit; suction lines: (upper limit -
                             velocity) / upper limit, worst status warn
-    heat_load               (cooler capacity - heat load) / cooler capacity
+    heat_load               (cooler capacity - heat load) / cooler capacity; with duty cycles, a mode a
+                            cycle lists (not declared continuous) is judged by the cycle instead:
+                            (cooler capacity - the cycle's mean heat load) / cooler capacity
+    oil_temperature         (max oil temperature - peak oil temperature) / (max oil temperature - ambient),
+                            a warning band of 5 K below the limit expressed in that fraction; worst
+                            status warn when the cooler's rated temperature difference is missing
     displacement_choice     (displacement used or proposed - smallest for the target pressure) / that smallest;
                             a variable motor's duty speed: (speed reached - speed needed) / speed needed
     breakaway               (breakaway torque at relief - starting torque needed) / torque needed
+    efficiency_table        None: inside or outside the maker's grid (fail outside: nothing is extrapolated)
     load_holding            None: a declaration, not a number (pass when a way to hold the load is declared)
 
 Worked example: relief 250 bar, inlet needs 260 bar: margin (250 - 260)/250 = -0.04, fail.
@@ -98,11 +104,13 @@ class Check:
     mode: str | None = None
     margin: float | None = None
     corner: str | None = None  # the operating corner this verdict was found at; None: the nominal point
+    cycle: str | None = None  # a duty cycle's id, for the checks judged over a cycle
 
     @property
     def where(self) -> str:
         parts = [f"{k} {v}" for k, v in (("drive", self.drive), ("duty point", self.duty),
-                                          ("supply", self.supply), ("mode", self.mode)) if v]
+                                          ("supply", self.supply), ("mode", self.mode),
+                                          ("duty cycle", self.cycle)) if v]
         return ", ".join(parts)
 
     @property

@@ -14,7 +14,7 @@ import math
 from specgen.intake import defaults
 from specgen.intake.build_fluid import build_lines
 from specgen.intake.build_loads import LOAD_MODELS, build_load
-from specgen.intake.model import Drive, DutyPoint, Fluid, GearStage, Inertia, Motor, Rating
+from specgen.intake.model import EfficiencyTable, Drive, DutyPoint, Fluid, GearStage, Inertia, Motor, Rating
 from specgen.intake.quantities import Builder
 
 GEAR_RANGE = (1e-3, 1e6)
@@ -93,7 +93,37 @@ def _motor(b: Builder, m: dict, path: tuple, back_pressure: float | None) -> Mot
         hydromechanical_efficiency=b.ratio(eff, "hydromechanical", epath, ehm, basis),
         starting_efficiency=b.ratio(eff, "starting", epath, est, basis),
         rating=rating, case_drain=bool(m.get("case_drain", False)), target_pressure=target,
+        efficiency_table=build_table(b, m.get("efficiency_table"), path + ("efficiency_table",)),
     )
+
+
+def build_table(b: Builder, t: dict | str | None, path: tuple) -> EfficiencyTable | None:
+    """The maker's efficiency grid; axes must rise and every row must hold one value per speed.
+    A name (a table in the sizing parts file) is looked up once the parts file is read (validate.py)."""
+    if t is None or isinstance(t, str):
+        return None
+    axes = {}
+    for key, kind in (("pressure_differential", "pressure"), ("speed", "speed")):
+        axes[key] = tuple(b.quantity({i: x for i, x in enumerate(t[key])}, i, path + (key,), kind)
+                          for i in range(len(t[key])))
+        if any(not a < c for a, c in zip(axes[key], axes[key][1:])):
+            b.fail(path + (key,), f"the {key.replace('_', ' ')} values must rise from one to the next")
+    n_p, n_s = len(axes["pressure_differential"]), len(axes["speed"])
+    grids = {}
+    for key in ("volumetric", "hydromechanical"):
+        rows = t[key]
+        if len(rows) != n_p or any(len(r) != n_s for r in rows):
+            b.fail(path + (key,), f"give {n_p} rows (one per pressure differential) of {n_s} values (one per speed)")
+        grids[key] = tuple(tuple(b.ratio({j: x for j, x in enumerate(r)}, j, path + (key, i), 1.0).value
+                                 for j in range(len(r))) for i, r in enumerate(rows))
+    starting = None
+    if "starting" in t:
+        if len(t["starting"]) != n_p:
+            b.fail(path + ("starting",), f"give {n_p} values, one per pressure differential")
+        starting = tuple(b.ratio({i: x for i, x in enumerate(t["starting"])}, i, path + ("starting",), 1.0).value
+                         for i in range(len(t["starting"])))
+    return EfficiencyTable(axes["pressure_differential"], axes["speed"], grids["volumetric"],
+                           grids["hydromechanical"], starting)
 
 
 def _duty(b: Builder, uid: str, u: dict, path: tuple, motor: Motor) -> DutyPoint:

@@ -9,7 +9,7 @@ from __future__ import annotations
 import math
 
 from specgen.intake import defaults
-from specgen.intake.model import Cooler, Fluid, Line, Lines, Ratio
+from specgen.intake.model import Cooler, Fluid, Line, Lines, Ratio, Reservoir
 from specgen.intake.quantities import Builder
 from specgen.iso_vg import ISO_VG_MIDPOINT_MM2S, WALTHER_CONSTANT_MM2S
 
@@ -74,4 +74,29 @@ def build_lines(b: Builder, raw: dict, path: tuple, fluid: Fluid | None) -> Line
 def build_cooler(b: Builder, raw: dict | None) -> Cooler | None:
     if raw is None:
         return None
-    return Cooler(capacity=b.quantity(raw, "capacity", ("cooler",), "power"))
+    return Cooler(capacity=b.quantity(raw, "capacity", ("cooler",), "power"),
+                  entering_temperature_difference=b.quantity(raw, "entering_temperature_difference", ("cooler",),
+                                                             "temperature_difference"))
+
+
+H_BASIS = "still air, 10-15 W/(m^2*K) (from memory)"
+
+
+def build_reservoir(b: Builder, raw: dict | None, fluid: Fluid | None) -> Reservoir | None:
+    """The reservoir; an oil volume becomes a mass with the fluid's density (or the assumed oil density)."""
+    if raw is None:
+        return None
+    path = ("reservoir",)
+    if "oil_mass" in raw:
+        oil_mass = b.quantity(raw, "oil_mass", path, "mass")
+    else:
+        density = fluid.density.value if fluid is not None else defaults.OIL_DENSITY
+        oil_mass = b.quantity(raw, "oil_volume", path, "volume") * density
+    if "heat_transfer_coefficient" in raw:
+        h = Ratio(b.quantity(raw, "heat_transfer_coefficient", path, "heat_transfer_coefficient"))
+    else:
+        h = Ratio(defaults.HEAT_TRANSFER_STILL_AIR, assumed=True, basis=H_BASIS)
+    return Reservoir(surface_area=b.quantity(raw, "surface_area", path, "area", sign="nonnegative", default=0.0),
+                     oil_mass=oil_mass,
+                     steel_mass=b.quantity(raw, "steel_mass", path, "mass", sign="nonnegative", default=0.0),
+                     heat_transfer_coefficient=h)

@@ -13,6 +13,7 @@ from pathlib import Path
 
 from specgen.errors import Problem, SpecError
 from specgen.intake import defaults, schema
+from specgen.intake.build_drives import build_table
 from specgen.intake.model import Drive, Sizing
 from specgen.intake.quantities import Builder
 from specgen.intake.read import Source, load_file
@@ -25,15 +26,16 @@ def build_sizing(b: Builder, raw: dict | None, allow_outside: bool, drives: tupl
         b.fail(path + ("parts_file",), "give series or parts_file, not both")
     if "parts_file" not in raw:
         return Sizing(series=raw.get("series", defaults.SIZING_SERIES))
-    stock = _parts_file(b, raw["parts_file"], path + ("parts_file",), allow_outside)
-    if stock is None:
+    read = _parts_file(b, raw["parts_file"], path + ("parts_file",), allow_outside)
+    if read is None:
         return Sizing(parts_file=raw["parts_file"])
+    stock, tables = read
     for drive in drives:
         m = drive.motor
         if m.target_pressure is not None and m.kind not in stock:
             b.fail(("drives", drive.id, "motor", "kind"),
                    f"parts file '{raw['parts_file']}' lists no {m.kind} motors (it lists: {', '.join(stock)})")
-    return Sizing(series="", stock=stock, parts_file=raw["parts_file"])
+    return Sizing(series="", stock=stock, parts_file=raw["parts_file"], tables=tables)
 
 
 def resolve_inside(spec_name: str, relative: str, allow_outside: bool) -> tuple[Path, str | None]:
@@ -51,7 +53,8 @@ def resolve_inside(spec_name: str, relative: str, allow_outside: bool) -> tuple[
 
 
 def _parts_file(b: Builder, name: str, here: tuple, allow_outside: bool) -> dict | None:
-    """Motor kind -> sorted stocked displacements (m^3/rev), or None when the file is refused."""
+    """(motor kind -> sorted stocked displacements (m^3/rev), name -> efficiency table), or None when
+    the file is refused."""
     target, refused = resolve_inside(b.source.name, name, allow_outside)
     if refused:
         b.fail(here, refused)
@@ -74,10 +77,12 @@ def _parts_file(b: Builder, name: str, here: tuple, allow_outside: bool) -> dict
         items = dict(enumerate(sizes))
         values = [pb.quantity(items, k, ("motors", kind), "displacement") for k in items]
         stock[kind] = tuple(sorted(v for v in values if v is not None and math.isfinite(v) and v > 0))
+    tables = {name: build_table(pb, t, ("efficiency_tables", name))
+              for name, t in parts.data.get("efficiency_tables", {}).items()}
     if pb.problems:
         b.problems.extend(pb.problems)
         return None
-    return stock
+    return stock, tables
 
 
 def _parts_schema_problems(parts: Source) -> list[Problem]:

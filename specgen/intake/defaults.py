@@ -40,3 +40,8 @@ THRESHOLDS = {
 OIL_REFERENCE_TEMPERATURE = 288.15  # K
 
 SIZING_SERIES = "R10"  # ISO 3 series proposals come from when the spec names none
+
+# Oil temperature (from memory, common practice, no source).
+HEAT_TRANSFER_STILL_AIR = 12.0  # W/(m^2*K), reservoir wall in still air (10-15)
+MAX_OIL_TEMPERATURE = 353.15  # K (80 degC), mineral oil
+MAX_OIL_BASIS = "mineral oil upper limit 80 degC (from memory, common practice)"

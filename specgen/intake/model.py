@@ -106,6 +106,17 @@ class Rating:
 
 
 @dataclass(frozen=True)
+class EfficiencyTable:
+    """The maker's efficiencies on a grid: rows by pressure differential (Pa), columns by speed (rev/s)."""
+
+    pressures: tuple[float, ...]  # rising
+    speeds: tuple[float, ...]  # rising
+    volumetric: tuple[tuple[float, ...], ...]  # [pressure][speed]
+    hydromechanical: tuple[tuple[float, ...], ...]
+    starting: tuple[float, ...] | None = None  # per pressure, at zero speed
+
+
+@dataclass(frozen=True)
 class Motor:
     kind: str
     model: str
@@ -118,6 +129,7 @@ class Motor:
     rating: Rating
     case_drain: bool
     target_pressure: float | None = None  # Pa, inlet pressure to size the displacement for
+    efficiency_table: EfficiencyTable | None = None
 
     @property
     def variable(self) -> bool:
@@ -218,6 +230,7 @@ class Mode:
     id: str
     title: str
     running: tuple[tuple[str, str], ...]  # (drive id, duty point id)
+    continuous: bool = False  # runs without end: its heat is checked as today even in a duty cycle
 
 
 @dataclass(frozen=True)
@@ -237,11 +250,43 @@ class Sizing:
     series: str = "R10"
     stock: dict | None = None  # motor kind -> tuple of stocked displacements (m^3/rev), sorted
     parts_file: str = ""  # as written in the spec
+    tables: dict | None = None  # name -> EfficiencyTable, the parts file's efficiency_tables
 
 
 @dataclass(frozen=True)
 class Cooler:
-    capacity: float  # W of heat the oil cooler rejects at the operating temperature
+    capacity: float  # W of heat the oil cooler rejects at the operating temperature (or at the ETD)
+    entering_temperature_difference: float | None = None  # K, oil in minus ambient air the capacity is rated at
+
+
+@dataclass(frozen=True)
+class Reservoir:
+    """The reservoir's natural dissipation and, with the oil and steel, the machine's heat capacity."""
+
+    surface_area: float  # m^2 of wall and pipe giving heat to the air
+    oil_mass: float  # kg
+    steel_mass: float  # kg
+    heat_transfer_coefficient: Ratio  # W/(m^2*K), carried as a Ratio so "assumed" travels with it
+
+
+@dataclass(frozen=True)
+class CycleStep:
+    mode: str
+    duration: float  # s
+
+
+@dataclass(frozen=True)
+class DutyCycle:
+    """Modes in turn, repeated without end; time of the period no step covers puts no heat in."""
+
+    id: str
+    title: str
+    steps: tuple[CycleStep, ...]
+    period: float  # s, at least the sum of the steps
+
+    @property
+    def modes(self) -> set[str]:
+        return {s.mode for s in self.steps}
 
 
 @dataclass(frozen=True)
@@ -260,6 +305,10 @@ class Machine:
     thresholds: Thresholds = Thresholds()
     sizing: Sizing = Sizing()
     cooler: Cooler | None = None
+    reservoir: Reservoir | None = None
+    duty_cycles: tuple[DutyCycle, ...] = ()
+    ambient_temperature: float | None = None  # K
+    max_oil_temperature: Ratio = Ratio(353.15)  # K, carried as a Ratio so "assumed" travels with it
 
     # Indexes by id, built on first use: the checks look drives and supplies up inside loops over
     # every duty point, and a scan each time would make a 1,000-drive spec quadratic.

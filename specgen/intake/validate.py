@@ -9,13 +9,15 @@ directions the loads decide. Every problem in a stage is reported together.
 from __future__ import annotations
 
 import re
+from dataclasses import replace
 from typing import Callable
 
 from specgen.errors import Problem, SpecError
 from specgen.intake import defaults, schema
 from specgen.intake.build_corners import Corner, build_corners
 from specgen.intake.build_drives import build_drive, check_targets
-from specgen.intake.build_fluid import build_cooler, build_fluid
+from specgen.intake.build_cycles import build_cycles, build_max_oil_temperature
+from specgen.intake.build_fluid import build_cooler, build_fluid, build_reservoir
 from specgen.intake.build_sizing import build_sizing
 from specgen.intake.build_supplies import build_supply
 from specgen.intake.model import Machine, Mode, Thresholds
@@ -113,7 +115,8 @@ def build_with_corners(source: Source, directions: Directions,
     supplies = tuple(build_supply(b, sid, s, fluid) for sid, s in d["supplies"].items())
     series = {s.id for s in supplies if s.circuit == "series"}
     drives = tuple(build_drive(b, did, dr, dr["supply"] in series, fluid) for did, dr in d["drives"].items())
-    modes = tuple(Mode(id=mid, title=m.get("title", mid), running=tuple(m["drives"].items()))
+    modes = tuple(Mode(id=mid, title=m.get("title", mid), running=tuple(m["drives"].items()),
+                       continuous=m.get("continuous", False))
                   for mid, m in d["modes"].items())
     t = d.get("thresholds", {})
     thresholds = Thresholds(**{
@@ -125,8 +128,12 @@ def build_with_corners(source: Source, directions: Directions,
         page_size=machine.get("page_size", "A4"), signoff=dict(machine.get("signoff", {})),
         fluid=fluid, supplies=supplies, drives=drives, modes=modes, thresholds=thresholds,
         sizing=build_sizing(b, d.get("sizing"), allow_outside_files, drives), cooler=build_cooler(b, d.get("cooler")),
+        reservoir=build_reservoir(b, d.get("reservoir"), fluid), duty_cycles=build_cycles(b, d.get("duty_cycles")),
+        ambient_temperature=b.quantity(d, "ambient_temperature", (), "temperature", sign="any"),
+        max_oil_temperature=build_max_oil_temperature(b, d),
     )
     _references(b, d)
+    model = _named_tables(b, d, model)
     model, contradictions = directions(model)
     for path, message in contradictions:
         b.fail(path, message)
@@ -135,6 +142,26 @@ def build_with_corners(source: Source, directions: Directions,
     if b.problems:
         raise SpecError(sorted(b.problems, key=lambda p: (p.location.line, p.location.column, p.path)))
     return model, corners
+
+
+def _named_tables(b: Builder, d: dict, model: Machine) -> Machine:
+    """Motors that name an efficiency table get it from the sizing parts file's efficiency_tables."""
+    tables = model.sizing.tables or {}
+    drives = []
+    for drive in model.drives:
+        name = d["drives"][drive.id]["motor"].get("efficiency_table")
+        if isinstance(name, str):
+            if name in tables:
+                drive = replace(drive, motor=replace(drive.motor, efficiency_table=tables[name]))
+            elif model.sizing.parts_file and model.sizing.stock is not None:
+                b.fail(("drives", drive.id, "motor", "efficiency_table"),
+                       f"parts file '{model.sizing.parts_file}' has no efficiency table '{name}'"
+                       + (f" (it has: {', '.join(tables)})" if tables else ""))
+            elif not model.sizing.parts_file:
+                b.fail(("drives", drive.id, "motor", "efficiency_table"),
+                       f"efficiency table '{name}' is named, but the spec gives no sizing.parts_file to find it in")
+        drives.append(drive)
+    return replace(model, drives=tuple(drives))
 
 
 def _references(b: Builder, d: dict) -> None:
@@ -151,3 +178,9 @@ def _references(b: Builder, d: dict) -> None:
             elif uid not in drives[did]["duty_points"]:
                 known = ", ".join(drives[did]["duty_points"])
                 b.fail(here, f"mode '{mid}' runs drive '{did}' at duty point '{uid}', which drive '{did}' does not define (its duty points: {known})")
+    for cid, c in (d.get("duty_cycles") or {}).items():
+        for i, step in enumerate(c["steps"]):
+            if step["mode"] not in d["modes"]:
+                b.fail(("duty_cycles", cid, "steps", i, "mode"),
+                       f"duty cycle '{cid}' names mode '{step['mode']}', which is not defined "
+                       f"(modes: {', '.join(d['modes'])})")

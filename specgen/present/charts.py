@@ -466,3 +466,30 @@ def margin_overview(fig_id: str, title: str, rows: Sequence[MarginRow]) -> Chart
            f"within the warning level. Smallest: "
            + "; ".join(f"{r.label} {_num(r.margin * 100)} % ({r.status})" for r in worst) + ".")
     return Chart(fig_id, _draw(fig_id, build), alt)
+
+
+def oil_temperature_vs_time(fig_id: str, title: str, *, x_unit: str, y_unit: str, times: Sequence[float],
+                            temperatures: Sequence[float], limit: Limit, steady: float) -> Chart:
+    """Oil temperature against time over the repeated duty cycle, from ambient, with the limit line
+    (dashed) and the steady temperature of the mean heat load (dotted). Numbers in display units."""
+    hot = max(list(temperatures) + [limit.at, steady])
+    cold = min(list(temperatures) + [0.0])
+    y_range = (cold, hot + 0.15 * (hot - cold or 1.0))
+    x_max = max(times[-1] if times else 0.0, 1e-9)
+
+    def build():
+        frame = _numeric_frame(HEIGHT_IN, title, (0, x_max), y_range, TICK + TICK_TEXT + LABEL)
+        ax = frame.ax
+        ax.plot(list(times), list(temperatures), color=INK, linewidth=1.2, zorder=4)
+        _horizontal_limits(ax, [limit], y_range[1] - y_range[0])
+        ax.axhline(steady, color=GREYS[4], linewidth=0.8, linestyle=LIMIT_STYLES["min"], zorder=2)
+        ax.annotate(f"steady {_num(steady)} {y_unit}", (1.0, steady), xycoords=("axes fraction", "data"),
+                    xytext=(-4, -3), textcoords="offset points", ha="right", va="top", fontsize=6.8, bbox=_CLEAR)
+        frame.label(f"time t [{x_unit}]", f"oil temperature T [{y_unit}]")
+        return frame.fig
+
+    peak = max(temperatures) if temperatures else steady
+    alt = (f"{title}. Oil temperature from {_num(temperatures[0] if temperatures else steady)} {y_unit} over "
+           f"{_num(x_max)} {x_unit} of repeated cycles, peak {_num(peak)} {y_unit}; steady {_num(steady)} {y_unit}; "
+           f"{limit.label} {limit.value}.")
+    return Chart(fig_id, _draw(fig_id, build), alt)

@@ -14,7 +14,7 @@ from specgen import __version__
 from specgen.cautions import SHORT
 from specgen.diff import INPUT_TOLERANCE, RESULT_TOLERANCE, CheckChange, Diff, InputChange, Side
 from specgen.present import diff_markdown
-from specgen.present.diff_markdown import MAX_CHARS, _md_cell  # noqa: F401 - part of this module's surface
+from specgen.present.diff_markdown import MAX_CHARS
 from specgen.present.text import table
 from specgen.present.values import convert, format_si, significant
 from specgen.units import KINDS

@@ -54,7 +54,8 @@ def _check(c, system: str, with_corner: bool) -> dict:
     out = {"id": c.id, "title": c.title, "status": c.status,
            "value": _limit(c.value, c.kind, system), "limit": _limit(c.limit, c.kind, system),
            "margin": _margin(c.margin), "message": c.message,
-           "where": {"drive": c.drive, "duty": c.duty, "supply": c.supply, "mode": c.mode}}
+           "where": {"drive": c.drive, "duty": c.duty, "supply": c.supply, "mode": c.mode,
+                     **({"cycle": c.cycle} if c.cycle else {})}}
     if with_corner:
         out["corner"] = c.corner
     return out
@@ -66,6 +67,17 @@ def _corner(k, system: str) -> dict:
             "overrides": [{"path": path, "value": value} for path, value in k.overrides],
             "assumed": k.assumed, "basis": k.basis, "verdict": k.verdict, "counts": k.counts(),
             "checks": [_check(c, system, False) for c in k.checks]}
+
+
+def _cycle(c, system: str) -> dict:
+    """A duty cycle's values; mean prime-mover power per supply; time share above the continuous pressure
+    rating per drive; the oil-temperature series as [seconds, temperature in display units]."""
+    return {"cycle": c.cycle, "values": {k: _value(v, system) for k, v in c.values.items()},
+            "mean_prime_mover_power": {s: dict(zip(("value", "unit"), convert(p, "power", system)))
+                                       for s, p in c.per_supply.items()},
+            "share_above_continuous_pressure": dict(c.above_continuous),
+            "oil_temperature_series": [[t, convert(x, "temperature", system)[0]] for t, x in c.series],
+            "settled": c.settled, "missing": c.missing}
 
 
 def document(o: Outcome, review=None) -> dict:
@@ -109,6 +121,7 @@ def document(o: Outcome, review=None) -> dict:
         ],
         "modes": [{"mode": m.mode, "values": {k: _value(v, system) for k, v in m.values.items()}} for m in r.modes],
         "fluid": {k: _value(v, system) for k, v in r.fluid.values.items()},
+        **({"duty_cycles": [_cycle(c, system) for c in r.cycles]} if r.cycles else {}),
         "checks": [_check(c, system, bool(r.corners)) for c in r.checks],
         **({"corners": [_corner(k, system) for k in r.corners]} if r.corners else {}),
         "assumed": assumed_list(r, system),

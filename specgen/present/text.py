@@ -72,6 +72,25 @@ def fluid_sizing_heat_lines(o: Outcome, system: str) -> list[str]:
     return ["", "Fluid, sizing, variable motors and heat"] + table(["where", "quantity", "value", "note"], rows)
 
 
+def cycle_lines(o: Outcome, system: str) -> list[str]:
+    """Each duty cycle's heat, mean prime-mover power per supply, time above continuous pressure and oil
+    temperature, one line each (nothing without duty cycles)."""
+    rows = []
+    for c in o.results.cycles:
+        where = f"cycle {c.cycle}"
+        rows += [[where, v.label, format_si(v.value, v.kind, system) + (" (assumed)" if v.assumed else ""), v.note]
+                 for v in c.values.values()]
+        rows += [[where, f"Mean prime-mover power, supply {s}", format_si(p, "power", system), ""]
+                 for s, p in c.per_supply.items()]
+        rows += [[where, f"Time above continuous pressure rating, drive {d}", format_si(x, "ratio", system), ""]
+                 for d, x in c.above_continuous.items()]
+        if c.missing:
+            rows.append([where, "Oil temperature", "-", c.missing])
+    if not rows:
+        return []
+    return ["", "Duty cycles and oil temperature"] + table(["where", "quantity", "value", "note"], rows)
+
+
 def render(o: Outcome, quiet: bool = False, review=None) -> str:
     """``review``: the spec's review.ReviewStatus, shown under the headline when given."""
     system = o.machine.display_units
@@ -91,6 +110,7 @@ def render(o: Outcome, quiet: bool = False, review=None) -> str:
                 for k, _ in SUPPLY_COLUMNS])
         out += table(["supply", "mode"] + [h for _, h in SUPPLY_COLUMNS], rows)
         out += fluid_sizing_heat_lines(o, system)
+        out += cycle_lines(o, system)
         out += ["", "Checks (failures and warnings first)"]
     problems = checks_lines(o, only_problems=quiet)
     out += problems

@@ -2,8 +2,9 @@
 
 Order: fluid properties -> each supply's pump (speed, full delivery) -> each drive: load model,
 motor torque and speed, then the displacement (given, proposed from a target pressure, or set by
-a variable motor's control), flow, line losses and pressures -> each supply in each mode
-(circuit, pump, prime mover, heat) -> each mode's heat load.
+a variable motor's control), the efficiencies (constant, or from the maker's table: resolve/efficiency.py),
+flow, line losses and pressures -> each supply in each mode (circuit, pump, prime mover, heat) -> each
+mode's heat load -> each duty cycle's heat, power and oil temperature (resolve/thermal.py).
 Pure: takes the model's SI floats, returns Results; no I/O, no pint.
 """
 
@@ -12,10 +13,12 @@ from __future__ import annotations
 from specgen.calc import gearing, loads, motor, variable
 from specgen.resolve.record import Record, eff, motor_eff
 from specgen.resolve.drive import DriveSetup, setup_drive
+from specgen.resolve.efficiency import duty_efficiencies
 from specgen.resolve.fluid import fluid_values
 from specgen.resolve.lines import line_values
 from specgen.resolve.load import load_values
 from specgen.resolve.supply import mode_heat, resolve_supply_mode, supply_base, supply_summary
+from specgen.resolve.thermal import resolve_cycles
 from specgen.results import DutyResult, FluidResult, Results
 from specgen.intake.model import Drive, DutyPoint, Machine, Ratio, Supply
 from specgen.trace import Input, Value, given
@@ -135,6 +138,7 @@ def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup
     if duty.id in setup.minimum_by_duty:
         rec.put(setup.minimum_by_duty[duty.id])
     vg = _displacement(rec, drive, duty, setup, n_m)
+    eta_v, eta_hm, eta_st = duty_efficiencies(rec, drive, duty, sup, t_m, n_m, vg, back_pressure(drive, sup))
     vg_in = Input("Vg", "motor displacement", vg, "displacement")
     t_in = Input("T", "motor torque", t_m, "torque")
     n_in = Input("n", "motor speed", n_m, "speed")
@@ -243,6 +247,7 @@ def resolve(machine: Machine) -> Results:
             if r is not None:
                 supply_modes.append(r)
     supplies = tuple(supply_summary(s, bases[s.id], supply_modes) for s in machine.supplies)
-    modes = tuple(mode_heat(mode, supply_modes) for mode in machine.modes)
+    modes = tuple(m for m in (mode_heat(mode, supply_modes) for mode in machine.modes) if m is not None)
+    cycles = resolve_cycles(machine, modes, supply_modes, duties)
     return Results(duties=tuple(duties.values()), supply_modes=tuple(supply_modes), drives=tuple(drive_results),
-                   supplies=supplies, modes=tuple(m for m in modes if m is not None), fluid=fluid)
+                   supplies=supplies, modes=modes, fluid=fluid, cycles=cycles)

@@ -88,3 +88,31 @@ def test_heat_load_boundaries(capacity, status):
 
 def test_no_cooler_no_heat_check():
     assert spec_checks(minimal(), "heat_load") == []
+
+
+# Oil temperature against its limit: margin (T_max - T) / (T_max - T_amb), warning band 5 K in the same
+# fraction (checks/lines_heat.py, a choice: common practice, no source). Limit 80 degC, ambient 30 degC:
+# reference 50 K, band 5 / 50 = 0.10 (hand calculation).
+@pytest.mark.parametrize("oil_c, status", [
+    (74.99, "pass"),  # 5.01 K below the limit
+    (75.0, "pass"),   # exactly 5 K below: margin 0.10 is not inside the band
+    (75.01, "warn"),  # 4.99 K below
+    (79.99, "warn"),
+    (80.0, "fail"),   # at the limit
+    (85.0, "fail"),
+])
+def test_oil_temperature_boundaries(oil_c, status):
+    from specgen.checks.lines_heat import oil_margin
+    from specgen.checks.status import status as rule
+
+    margin, band = oil_margin(273.15 + oil_c, 353.15, 303.15)
+    assert band == pytest.approx(0.10)
+    assert margin == pytest.approx((80.0 - oil_c) / 50.0)
+    assert rule(margin, band) == status
+
+
+def test_oil_temperature_ambient_at_the_limit_fails():
+    from specgen.checks.lines_heat import oil_margin
+
+    margin, _ = oil_margin(313.15, 313.15, 313.15)
+    assert margin <= 0

@@ -175,7 +175,7 @@ def test_example_report_charts_stay_inside_their_figures(monkeypatch):
     monkeypatch.setattr(chart_batch, "FORK_FROM", 10**6)  # drawn here, where they can be looked at
     figures = drawn_figures(monkeypatch)
     report.render(run_file(EXAMPLE), fp=Fingerprint("0" * 64))
-    assert len(figures) == 18
+    assert len(figures) == 19  # 18 of drives, supplies and margins, and the bale round's oil temperature
     assert_inside(figures)
 
 
@@ -195,4 +195,26 @@ def test_everything_drawn_stays_inside_the_figure(monkeypatch):
         MarginRow("drive_with_a_quite_long_identifier duty_point: inlet vs pressure limit", -0.85, "fail", 0.1),
         MarginRow("x" * 140, 0.05, "warn", 0.1), MarginRow("fan: speed vs min rating", 19.0, "pass")])
     assert len(figures) == 4
+    assert_inside(figures)
+
+
+def oil(fig_id="fig7", **kw):
+    args = dict(x_unit="min", y_unit="degC", times=[0.0, 0.5, 1.0, 1.5, 2.0], temperatures=[30.0, 38.0, 36.0, 42.0, 40.0],
+                limit=Limit("oil limit", "70.00 degC", 70.0, "max"), steady=39.0)
+    args.update(kw)
+    return charts.oil_temperature_vs_time(fig_id, "Duty cycle lift: oil temperature from ambient", **args)
+
+
+def test_oil_temperature_chart_labels_axes_limit_and_key_numbers(monkeypatch):
+    figures = drawn_figures(monkeypatch)
+    c = oil()
+    shown = texts(c.svg)
+    assert "time t [min]" in shown and "oil temperature T [degC]" in shown
+    assert "oil limit 70.00 degC" in shown and "steady 39.00 degC" in shown
+    assert "peak 42.00 degC" in c.alt and "from 30.00 degC over 2.000 min" in c.alt
+    assert c.svg == oil().svg
+    for colour in set(re.findall(r"#([0-9a-fA-F]{6})\b", c.svg)):
+        assert colour[0:2] == colour[2:4] == colour[4:6], colour
+    oil("fig8", y_unit="degF", temperatures=[-4.0, 150.0, 140.0, 171.0, 160.0], steady=150.0,
+        limit=Limit("oil limit", "176.0 degF", 176.0, "max"))
     assert_inside(figures)

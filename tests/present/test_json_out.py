@@ -71,3 +71,27 @@ def test_an_infinite_margin_is_written_as_null():
 
     assert _margin(float("inf")) is None and _margin(None) is None and _margin(-0.04) == -0.04
     assert math.isinf(Check("x", "t", "pass", 1.0, 0.0, "torque", "m", margin=float("inf")).margin)
+
+
+def test_duty_cycles_in_json_and_text():
+    spec = ROOT / "tests" / "specs" / "harbour_crane.yaml"
+    code, out, err = run_cli("check", "--format", "json", spec)
+    assert code == 0 and err == ""
+    doc = json.loads(out)
+    validate(doc)
+    (cycle,) = doc["duty_cycles"]
+    assert cycle["cycle"] == "container_moves" and cycle["settled"] and cycle["missing"] == ""
+    assert cycle["oil_temperature_series"][0] == [0.0, pytest.approx(30.0)]  # from ambient, in degC
+    assert cycle["share_above_continuous_pressure"] == {"hoist": 0.0}
+    assert cycle["mean_prime_mover_power"]["main"]["unit"] == "kW"
+    oil = next(c for c in doc["checks"] if c["id"] == "oil_temperature")
+    assert oil["where"]["cycle"] == "container_moves" and oil["limit"] == {"value": pytest.approx(70.0), "unit": "degC"}
+    assert all("cycle" not in c["where"] for c in doc["checks"] if c["id"] not in ("oil_temperature", "heat_load"))
+    code, out, _ = run_cli("check", spec)
+    assert "Duty cycles and oil temperature" in out and "duty cycle container_moves" in out
+
+
+def test_specs_without_duty_cycles_have_no_cycle_keys():
+    code, out, _ = run_cli("check", "--format", "json", ROOT / "example_specs" / "log_deck.yaml")
+    doc = json.loads(out)
+    assert "duty_cycles" not in doc and all("cycle" not in c["where"] for c in doc["checks"])

@@ -146,3 +146,18 @@ def margin_charts(o: Outcome, fig_n, draw: Batch) -> list:
         suffix = f" (part {k} of {len(parts)})" if len(parts) > 1 else ""
         out.append(draw(charts.margin_overview, fig_n(), f"Pressure and speed margins, smallest first{suffix}", part))
     return out
+
+
+def cycle_chart(o: Outcome, cycle, system: str, fig_n, draw: Batch):
+    """Oil temperature against time (minutes) over the repeated duty cycle, with the limit and the steady
+    temperature; None when the cycle has no oil-temperature series."""
+    if not cycle.series:
+        return None
+    limit = o.machine.max_oil_temperature.value
+    unit = convert(limit, "temperature", system)[1]
+    return draw(
+        charts.oil_temperature_vs_time, fig_n(), f"Duty cycle {cycle.cycle}: oil temperature from ambient",
+        x_unit="min", y_unit=unit, times=[t / 60.0 for t, _ in cycle.series],
+        temperatures=[plain(x, "temperature", system) for _, x in cycle.series],
+        limit=charts.Limit("oil limit", show(limit, "temperature", system), plain(limit, "temperature", system), "max"),
+        steady=plain(cycle["steady_temperature"], "temperature", system))

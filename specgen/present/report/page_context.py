@@ -16,7 +16,7 @@ from specgen.fingerprint import Fingerprint
 from specgen.pipeline import Outcome
 from specgen.present.chart_batch import Batch
 from specgen.present.markdown_text import to_html
-from specgen.present.report.chart_data import drive_charts, margin_charts, supply_charts
+from specgen.present.report.chart_data import cycle_chart, drive_charts, margin_charts, supply_charts
 from specgen.present.report.entered import drive_rows, duty_rows, fluid_rows, given_text, supply_rows
 from specgen.present.report.values import STATUS_WORD, show, slug, trace_row
 from specgen.results import Check
@@ -78,6 +78,7 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
     drives = [_drive_context(o, d, system, checks, fig_n, draw) for d in m.drives]
     mode_traces = [_trace_block(f"mode-{slug(x.mode)}", f"Mode {x.mode}", x.values, system, checks)
                    for x in map(r.mode_result, (md.id for md in m.modes)) if x is not None and x.values]
+    cycles = [_cycle_context(o, c, system, checks, fig_n, draw) for c in r.cycles]
     fluid_values = r.fluid.values
     if own_batch:
         draw.draw()
@@ -98,7 +99,7 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
         "fluid": fluid_rows(o, system),
         "fluid_trace": _trace_block("fluid-trace", "Fluid at the working temperature", fluid_values, system, checks)
         if fluid_values else None,
-        "modes": _modes(o), "mode_traces": mode_traces, "supplies": supplies, "drives": drives,
+        "modes": _modes(o), "mode_traces": mode_traces, "supplies": supplies, "drives": drives, "cycles": cycles,
         "margin_charts": margins, "assumed": _assumed(o, system), "symbols": _symbols(o),
         "manual_items": _manual_items(o, system),
         "signoff": [{"role": label, "name": m.signoff.get(key, "")} for key, label in SIGNOFF_ROLES],
@@ -132,6 +133,8 @@ def _check_target(c: Check) -> str:
         return f"supply-{slug(c.supply)}"
     if c.mode:
         return f"mode-{slug(c.mode)}"
+    if c.cycle:
+        return f"cycle-{slug(c.cycle)}"
     return "checklist"
 
 
@@ -151,6 +154,18 @@ def _table(results, columns, system: str, first_head: list[str], first_cells: li
 def _trace_block(anchor: str, title: str, values: dict, system: str, checks: list[dict]) -> dict:
     return {"anchor": anchor, "title": title, "rows": [trace_row(v, system) for v in values.values()],
             "checks": [c for c in checks if c["target"] == anchor]}
+
+
+def _cycle_context(o: Outcome, c, system: str, checks: list[dict], fig_n, draw: Batch) -> dict:
+    """A duty cycle: its steps, its trace (heat, power, oil temperature) and the oil-temperature chart."""
+    cycle = next(x for x in o.machine.duty_cycles if x.id == c.cycle)
+    rows = [{"mode": s.mode, "time": show(s.duration, "time", system)} for s in cycle.steps]
+    extra = [f"mean prime-mover power of supply {s}: {show(p, 'power', system)}" for s, p in c.per_supply.items()]
+    extra += [f"drive {d} above its continuous pressure rating {show(x, 'ratio', system)} of the time"
+              for d, x in c.above_continuous.items()]
+    return {"id": c.cycle, "title": cycle.title, "period": show(cycle.period, "time", system), "steps": rows,
+            "trace": _trace_block(f"cycle-{slug(c.cycle)}", f"Duty cycle {cycle.title}", c.values, system, checks),
+            "extra": extra, "missing": c.missing, "chart": cycle_chart(o, c, system, fig_n, draw)}
 
 
 def _supply_context(o: Outcome, sup, system: str, checks: list[dict], fig_n, draw: Batch) -> dict:

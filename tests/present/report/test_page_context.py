@@ -141,10 +141,13 @@ def test_accessible_structure(example):
     assert parsed.ths and all(s in ("col", "row") for s in parsed.ths)
     dupes = {i for i in parsed.ids if parsed.ids.count(i) > 1}
     assert not dupes  # ids stay unique across all the inline SVGs
-    # torque and speed per drive, flow and power per supply, and the margin overview
+    # torque and speed per drive, flow and power per supply, the margin overview, and the oil
+    # temperature of each duty cycle that has one
     rows = len(report.margin_rows(o))
     margin_parts = -(-rows // report.MARGIN_ROWS_PER_CHART)
-    assert len(parsed.figures) == 2 * len(o.machine.drives) + 2 * len(o.machine.supplies) + margin_parts
+    cycles = sum(1 for c in o.results.cycles if c.series)
+    assert len(parsed.figures) == (2 * len(o.machine.drives) + 2 * len(o.machine.supplies) + margin_parts
+                                   + cycles)
     assert all(f == {"svg": 1, "caption": 1, "alt": 1} for f in parsed.figures)
     for m in re.finditer(r'aria-labelledby="(fig\d+-alt)"', page):
         assert f'id="{m.group(1)}"' in page
@@ -205,3 +208,19 @@ def test_a_supply_left_out_of_a_mode_has_no_column_for_it(tmp_path):
     assert ("main_001", "mode_000") not in pairs and ("main_000", "mode_000") in pairs
     page = report.render(o, fp=FIXED)
     assert 'id="mode-main_000-mode_000"' in page and 'id="mode-main_001-mode_000"' not in page
+
+
+def test_thermal_section_with_chart_steps_and_linked_checks():
+    from helpers import ROOT
+
+    o = run_file(ROOT / "tests" / "specs" / "harbour_crane.yaml")
+    page = report.render(o, fp=FIXED)
+    section = page[page.index('<section id="thermal"'):]
+    section = section[:section.index("</section>")]
+    assert "Duty cycles and oil temperature" in section and "period 150.0 s" in section
+    assert "<code>hoisting</code> 30.00 s" in section  # 20 % of 150 s
+    assert section.count("<svg") == 1 and "oil limit 70.00 degC" in section
+    assert 'id="cycle-container_moves"' in section  # the trace block the checks link to
+    assert 'href="#cycle-container_moves"' in page
+    plain = report.render(run_file(ROOT / "example_specs" / "log_deck.yaml"), fp=FIXED)
+    assert 'id="thermal"' not in plain
