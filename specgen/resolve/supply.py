@@ -21,6 +21,7 @@ from specgen.calc import heat, supply as pump
 from specgen.resolve.record import Record, eff
 from specgen.resolve.lines import line_values
 from specgen.resolve.series import series_start
+from specgen.resolve.suction import suction_values
 from specgen.results import Contribution, FluidResult, ModeResult, SupplyModeResult, SupplyResult
 from specgen.intake.model import Machine, Supply
 from specgen.trace import Input, Value, given, indexed
@@ -60,6 +61,9 @@ def supply_base(sup: Supply, fluid: FluidResult) -> dict[str, Value]:
         q_s = p.displacement * n_p if p.displacement is not None else rec.get("pump_delivery")
         for value in line_values("suction", sup.suction_line, q_s, fluid["kinematic_viscosity"], fluid["density"]):
             rec.put(value)
+    density = fluid["density"] if "density" in fluid.values else None
+    for value in suction_values(sup, density, rec.get("suction_line_loss")):
+        rec.put(value)
     return rec.values
 
 
