@@ -36,7 +36,10 @@ def pressure_margin(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Ch
             "warn": f"is within {warn:.0%} of the {setting}: little room for losses and wear",
             "pass": f"leaves enough margin below the {setting}",
         }[st]
-        what = "Inlet pressure plus pressure-line loss" if with_line else "Inlet pressure"
+        valve, line = "valve_drop_to_motor" in r.values, "pressure_line_loss" in r.values
+        what = ("Inlet pressure plus line and valve losses" if valve and line else
+                "Inlet pressure plus valve drop" if valve else
+                "Inlet pressure plus pressure-line loss" if with_line else "Inlet pressure")
         device = {"compensator setting": "compensator", "relief setting": "relief"}.get(setting, setting)
         yield Check("pressure_margin", "Pressure margin to relief", st, margin, warn, "ratio",
                     f"{what} {fmt(p_in, 'pressure')} against {device} {fmt(relief, 'pressure')} "
