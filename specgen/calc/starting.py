@@ -43,6 +43,6 @@ def starting_differential(start_torque: float, displacement: float, eta_start: f
     """Differential a motor needs to start: dp = 2*pi*T_start / (Vg * eta_start) (motor torque
     relation with the starting efficiency).
 
-    Example: 1263.2 N*m on 400 cm^3 at 0.80: 2 pi * 1263.2 / (400e-6 * 0.8) = 248.0 bar.
+    Example: 1263.2 N*m on 400 cm^3 at 0.80: 2 pi * 1263.16 / (400e-6 * 0.8) = 248.02 bar.
     """
     return TWO_PI * start_torque / (displacement * eta_start)
