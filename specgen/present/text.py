@@ -98,6 +98,9 @@ def render(o: Outcome, quiet: bool = False, review=None) -> str:
         out += table(["supply", "mode"] + [h for _, h in SUPPLY_COLUMNS], rows)
         out += fluid_sizing_heat_lines(o, system)
         out += budget_lines(o, system)
+        out += [f"Supply {escape(s.id)} feeds no drive in this spec ({escape(s.feeds)}): not computed"
+                for s in o.machine.supplies if s.feeds is not None and not any(
+                    d.supply == s.id for d in o.machine.drives)]
         out += ["", "Checks (failures and warnings first)"]
     problems = checks_lines(o, only_problems=quiet)
     out += problems
