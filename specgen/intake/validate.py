@@ -143,8 +143,10 @@ def _counterbalance_factor(b: Builder, t: dict) -> Ratio:
 def _references(b: Builder, d: dict) -> None:
     supplies, drives = d["supplies"], d["drives"]
     fed = {dr["supply"] for dr in drives.values()}
+    # a drive naming an unknown supply is reported on its own: the supply it meant may be the one left bare
+    named = all(dr["supply"] in supplies for dr in drives.values())
     for sid, s in supplies.items():
-        if sid not in fed and "feeds" not in s:
+        if named and sid not in fed and "feeds" not in s:
             b.fail(("supplies", sid), f"supply '{sid}' feeds no drive; give it a drive, remove it, or say what it "
                                       "supplies outside the spec with feeds: <text> (e.g. a charge circuit)")
     for did, dr in drives.items():
