@@ -12,6 +12,8 @@ Pure: the model's SI floats in, traced Values out.
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 from specgen.calc import loads, starting
 from specgen.intake import defaults
 from specgen.intake.model import BeltLoad, Drive, DutyPoint, Ratio, Supply, WheelLoad, WinchLoad
@@ -60,10 +62,13 @@ def gear_starting_efficiency(drive: Drive) -> Ratio:
 
 def static_load_values(duty: DutyPoint, load_values: dict) -> list[Value]:
     """The load-shaft torque that acts at standstill, for a driving duty point's load model
-    (winch, wheel, belt; a speed-squared load has none). Empty when there is none."""
+    (winch, wheel, belt; zero for a speed-squared load, a wheel load the grade would roll, a belt
+    pushing). Empty without a load model."""
     load = duty.load
     if duty.direction == "overrunning" or load is None:
         return []
+    none_at_rest = Value("static_load_torque", "Load torque at standstill", "T_L,static", 0.0, "torque",
+                         "T_L,static = 0", "the load model puts no torque on the shaft at rest", (), SRC_START)
     if isinstance(load, WinchLoad):
         d_eff = loads.winch_effective_diameter(load.drum_diameter, load.rope_diameter, load.layer)
         t = starting.winch_static_torque(load.line_pull, d_eff)
@@ -74,7 +79,7 @@ def static_load_values(duty: DutyPoint, load_values: dict) -> list[Value]:
     if isinstance(load, WheelLoad):
         f = starting.wheel_static_force(load.vehicle_mass, load.rolling_resistance, load.grade)
         if f <= 0:
-            return []
+            return [replace(none_at_rest, words="downhill the grade holds no load against the start")]
         t = f * load.rolling_radius / load.driven_wheels
         return [Value("static_load_torque", "Load torque at standstill", "T_L,static", t, "torque",
                       "T_L,static = m*g*(c_rr*cos(theta) + sin(theta)) * r / n_wheels",
@@ -90,7 +95,7 @@ def static_load_values(duty: DutyPoint, load_values: dict) -> list[Value]:
                       "T_L,static = F_belt * d_pulley / 2", "the belt pull at rest",
                       (Input("F_belt", "effective belt pull", load.belt_pull, "force"),
                        Input("d_pulley", "pulley diameter", load.pulley_diameter, "length")), SRC_START)]
-    return []
+    return [none_at_rest]  # a fan or mixer (torque with the square of speed), a belt pushing
 
 
 def starting_need(drive: Drive, duty: DutyPoint, static: float | None) -> Value | None:

@@ -205,9 +205,15 @@ def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup
                                  "the supply only keeps the inlet filled; the load is held at the outlet"
                                  + ("" if cb is None else " (the load alone opens the counterbalance valve)"),
                                  (pout_in,), SRC_MOTOR))
-        rec.put(Value("braking_pressure", "Pressure held at outlet port", "p_hold", dp + p_out, "pressure",
-                      "p_hold = dp + p_out", "braking differential on top of the inlet pressure",
-                      (Input("dp", "braking differential", dp, "pressure"), pout_in), SRC_MOTOR))
+        if p_pilot > 0:  # the load port sits at the inlet (pilot) pressure plus the braking differential
+            rec.put(Value("braking_pressure", "Pressure held at outlet port", "p_hold", dp + p_in, "pressure",
+                          "p_hold = dp + p_in", "braking differential on top of the inlet (pilot) pressure",
+                          (Input("dp", "braking differential", dp, "pressure"),
+                           Input("p_in", "inlet (pilot) pressure", p_in, "pressure")), SRC_CB))
+        else:
+            rec.put(Value("braking_pressure", "Pressure held at outlet port", "p_hold", dp + p_out, "pressure",
+                          "p_hold = dp + p_out", "braking differential on top of the inlet pressure",
+                          (Input("dp", "braking differential", dp, "pressure"), pout_in), SRC_MOTOR))
     else:
         dp = rec.put(Value("pressure_differential", "Pressure differential required", "dp",
                            motor.pressure_for_torque(t_m, vg, eta_hm.value), "pressure",

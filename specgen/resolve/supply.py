@@ -126,8 +126,9 @@ def _series_pressures(rec: Record, machine: Machine, sup: Supply, running, dutie
     terms = [Input("p_return", "return pressure", p, "pressure")]
     for d, u in reversed(running):
         r = duties[(d, u)].values
-        ret = r["return_line_loss"].value if "return_line_loss" in r else 0.0
-        press = r["pressure_line_loss"].value if "pressure_line_loss" in r else 0.0
+        # line losses and directional-valve drops between this motor and the next (or tank, or pump)
+        ret = sum(r[k].value for k in ("return_line_loss", "valve_drop_to_tank") if k in r)
+        press = sum(r[k].value for k in ("pressure_line_loss", "valve_drop_to_motor") if k in r)
         dp = 0.0 if duties[(d, u)].direction == "overrunning" else r["pressure_differential"].value
         outlet = p + ret
         inlet = outlet + dp

@@ -80,6 +80,8 @@ def test_counterbalance_pilot_pressure_and_heat():
     assert u["inlet_pressure"] / 1e5 == pytest.approx((240 - 162.0114) / 5, abs=1e-3)
     assert u["counterbalance_heat"] == pytest.approx(u["shaft_power"] + u["inlet_pressure"] * u["flow_demand"])
     assert r.supply_mode("main", "work")["working_pressure"] == pytest.approx(u["inlet_pressure"])
+    # the load port sits at the pilot pressure plus the braking differential: 15.598 + 162.011 = 177.609 bar
+    assert u["braking_pressure"] / 1e5 == pytest.approx(177.609, abs=1e-3)
 
 
 @pytest.mark.parametrize("head, status", [
