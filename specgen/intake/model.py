@@ -12,6 +12,7 @@ import math
 from dataclasses import dataclass, field
 from functools import cached_property
 
+from specgen.intake import defaults
 from specgen.iso_vg import GRADES_WITHOUT_TYPICAL_100C
 
 
@@ -66,7 +67,8 @@ class Pump:
     overall_efficiency: Ratio
     control: str = "fixed"  # "fixed" or "pressure_compensated"
     compensator_setting: float | None = None  # Pa
-    min_inlet_pressure: Ratio = Ratio(0.8e5)  # Pa absolute, carried as a Ratio so "assumed" travels with it
+    # Pa absolute, carried as a Ratio so "assumed" travels with it
+    min_inlet_pressure: Ratio = Ratio(defaults.PUMP_MIN_INLET, assumed=True, basis=defaults.PUMP_MIN_INLET_BASIS)
 
 
 @dataclass(frozen=True)
