@@ -158,6 +158,9 @@ def test_braking_drive_draws_no_pump_power():
     sm = r.supply_mode("main", "work")
     assert sm["flow_demand"] == 0.0
     assert sm["pump_input_power"] == pytest.approx(0.0, abs=1e-9)
+    # before, its 52.63 L/min were charged at 240 bar: 52.63/60e3 * 240e5 / 0.85 = 24.77 kW > 5 kW, a false fail
+    d["supplies"]["main"]["prime_mover_power"] = "5 kW"
+    assert spec_check(d, "prime_mover_power", supply="main", mode="work").status == "pass"
 
 
 def test_makeup_flow_only_for_overrunning_drives():
