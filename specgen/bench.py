@@ -117,6 +117,10 @@ def generate(demo: dict, n_drives: int, n_modes: int, max_supplies: int = 50) ->
             new = copy.deepcopy(dr)
             new["title"], new["supply"] = f"{dr.get('title', did)} [{g}]", f"{dr['supply']}_{g % sets:03d}"
             data["drives"][f"{did}_{g:04d}"] = new
+    fed = {dr["supply"] for dr in data["drives"].values()}
+    for sid, sup in data["supplies"].items():  # a last, partial group may leave a copy without drives
+        if sid not in fed:
+            sup["feeds"] = "no drive of this generated machine"
     for m in range(n_modes):
         template = templates[m % len(templates)]
         groups = [g for g in range(n_groups) if g % MODE_SETS == m % MODE_SETS] or [m % n_groups]

@@ -34,12 +34,15 @@ def test_series_values_sit_under_the_drive_id_and_the_trace_keeps_their_place():
     s = next(x for x in r.supply_modes if x.per_drive)
     assert set(s.per_drive) == {c.drive for c in s.contributions}
     for drive, values in s.per_drive.items():
-        assert set(values) == {"outlet_pressure", "inlet_pressure"}
+        # inlet and outlet running; torque at the limit at that outlet; from rest where a start is needed
+        assert {"outlet_pressure", "inlet_pressure", "relief_torque"} <= set(values) <= {
+            "outlet_pressure", "inlet_pressure", "relief_torque", "start_outlet_pressure", "breakaway_torque"}
         assert s.drive_value(drive, "inlet_pressure").value >= s.drive_value(drive, "outlet_pressure").value
     assert not any("[" in k for k in s.values)
     keys = list(s.trace)
-    # computed order: the line flow, then each drive's outlet and inlet from the return end, then the sum
-    assert keys[0] == "flow_demand" and keys.index("working_pressure") == 1 + 2 * len(s.per_drive)
+    # computed order: the line flow, then each drive's outlet and inlet from the return end and its
+    # values at the limit and from rest, then the sum
+    assert keys[0] == "flow_demand" and keys.index("working_pressure") == 1 + sum(len(v) for v in s.per_drive.values())
     assert all(isinstance(k, tuple) for k in keys[1:keys.index("working_pressure")])
     assert len(s.trace) == len(s.values) + sum(len(v) for v in s.per_drive.values())
 

@@ -3,7 +3,8 @@
 A check reads computed results and the model's ratings and thresholds; it never recomputes a
 relation. One status rule and one order of severity for all of them: checks/status.py. Topics:
 pressure.py, speed.py, flow_power.py, lines_heat.py (lines, heat, oil temperature), motors.py (sizing and
-motors), efficiency.py (duty points against a maker's efficiency table).
+motors), valves.py (port relief, counterbalance, pump inlet), efficiency.py (duty points against a maker's
+efficiency table).
 To add a check: write a function taking (machine, results, fmt) and yielding Check records with
 their margin, and list it in CHECKS (DEVELOPERS.md has the details).
 """
@@ -20,6 +21,7 @@ from specgen.checks.motors import breakaway, displacement_choice, load_holding
 from specgen.checks.pressure import (port_pressures, pressure_margin, pressure_ratings, series_outlet_pressure,
                                      supply_pressure)
 from specgen.checks.speed import min_displacement_speed, speed_ratings
+from specgen.checks.valves import counterbalance_setting, port_relief_braking, pump_inlet_pressure
 from specgen.intake.model import Machine
 from specgen.units import format_si
 
@@ -30,7 +32,8 @@ if TYPE_CHECKING:
 # (outlet, case) go drive by drive, so a drive's ratings stand together.
 CHECKS = [pressure_margin, pressure_ratings, speed_ratings, breakaway, efficiency_table, port_pressures, load_holding,
           pump_flow, prime_mover_power, supply_pressure, displacement_choice, min_displacement_speed, line_velocity,
-          makeup_flow, heat_load, oil_temperature, series_outlet_pressure]
+          makeup_flow, heat_load, oil_temperature, series_outlet_pressure, port_relief_braking, counterbalance_setting,
+          pump_inlet_pressure]
 
 
 def run_checks(machine: Machine, results: Results) -> Results:

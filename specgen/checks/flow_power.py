@@ -14,6 +14,7 @@ from specgen.intake.model import Machine
 if TYPE_CHECKING:
     from specgen.results import Results
 
+MAKEUP_PRESSURE = 1e5  # Pa: return pressure to push oil through makeup valves (common practice, no source)
 HOLDING_VALVES = ("counterbalance_valve", "brake_valve", "counterbalance_valve_and_brake")
 
 
@@ -66,7 +67,21 @@ def makeup_flow(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]
                     "warn": (": short, the counterbalance valve will throttle the load down and it may judder."
                              if margin <= 0 else f": under {warn:.0%} in hand."),
                     "pass": "."}[st]
+            via_makeup = r.drive_value(c.drive, "makeup_pressure")
+            source = ("the other drives leave" if via_makeup is None else
+                      "the other drives' return flow and the pump's surplus to tank give")
             yield Check("makeup_flow", "Makeup flow for overrunning load", st, have, need, "flow",
-                        f"The overrunning motor needs {fmt(need, 'flow')} at its inlet; the other drives leave "
+                        f"The overrunning motor needs {fmt(need, 'flow')} at its inlet; {source} "
                         f"{fmt(have, 'flow')}{tail}", drive=c.drive, duty=c.duty, supply=r.supply, mode=r.mode,
                         margin=margin)
+            if via_makeup is not None:
+                p = via_makeup.value
+                margin = (p - MAKEUP_PRESSURE) / MAKEUP_PRESSURE
+                st = status(margin, worst="warn")
+                yield Check("makeup_flow", "Return pressure pushes the makeup flow", st, p, MAKEUP_PRESSURE,
+                            "pressure", f"The return pressure {fmt(p, 'pressure')} pushes oil through the makeup "
+                            f"valves into the inlet" + ("." if st == "pass" else
+                                                        f", under about {fmt(MAKEUP_PRESSURE, 'pressure')}: the "
+                                                        "inlet may not fill and the motor can cavitate; add a "
+                                                        "back-pressure valve in the return line."),
+                            drive=c.drive, duty=c.duty, supply=r.supply, mode=r.mode, margin=margin)

@@ -60,19 +60,38 @@ def displacement_choice(machine: Machine, results: Results, fmt: Fmt) -> Iterato
 
 
 def breakaway(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]:
-    """Torque from rest at the relief setting (starting efficiency) against the starting torque."""
+    """Torque from rest at the drive's pressure limit (starting efficiency) against the torque the
+    load needs from rest (a load at standstill or an explicit starting torque). In series, per mode:
+    the drives downstream start at the same time and take their starting differentials first."""
     warn = machine.thresholds.breakaway_margin_warn.value
+    in_series = {}
+    for sm in results.supply_modes:
+        for c in sm.contributions:
+            v = sm.drive_value(c.drive, "breakaway_torque")
+            if v is not None:
+                in_series.setdefault((c.drive, c.duty), []).append((sm, v.value))
     for r in results.duties:
         if "starting_torque_motor" not in r.values:
             continue
-        have, need = r["breakaway_torque"], r["starting_torque_motor"]
-        margin = reaches(have, need)
-        st = status(margin, warn)
-        yield Check("breakaway", "Breakaway torque at relief setting", st, have, need, "torque",
-                    f"From rest the motor gives {fmt(have, 'torque')} at the relief setting against "
-                    f"{fmt(need, 'torque')} needed"
-                    + {"fail": ": the load will not start.", "warn": f": less than {warn:.0%} in hand.",
-                       "pass": "."}[st], drive=r.drive, duty=r.duty, margin=margin)
+        need = r["starting_torque_motor"]
+        limit = results.drive_result(r.drive).values.get("pressure_limit") if results.drive_result(r.drive) else None
+        setting = limit.note.removeprefix("governed by the ") if limit is not None else "relief setting"
+        where = [(None, r["breakaway_torque"])] + in_series.get((r.drive, r.duty), [])
+        if len(where) > 1:
+            where = where[1:]  # in series the mode's start governs; the duty alone assumes the return at the outlet
+        for sm, have in where:
+            margin = reaches(have, need)
+            st = status(margin, warn)
+            p_lim = f" {fmt(limit.value, 'pressure')}" if limit is not None else ""
+            ctx = "" if sm is None else (
+                f" with the drives downstream starting too (outlet "
+                f"{fmt(sm.drive_value(r.drive, 'start_outlet_pressure').value, 'pressure')})")
+            yield Check("breakaway", "Breakaway torque at relief setting", st, have, need, "torque",
+                        f"From rest the motor gives {fmt(have, 'torque')} at the {setting}{p_lim}{ctx} against "
+                        f"{fmt(need, 'torque')} needed"
+                        + {"fail": ": the load will not start.", "warn": f": less than {warn:.0%} in hand.",
+                           "pass": "."}[st], drive=r.drive, duty=r.duty,
+                        **({} if sm is None else {"supply": sm.supply, "mode": sm.mode}), margin=margin)
 
 
 def load_holding(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]:

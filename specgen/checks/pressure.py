@@ -11,21 +11,22 @@ from typing import TYPE_CHECKING, Iterator
 
 from specgen.checks.status import Check, Fmt, against, below, missing, status
 from specgen.intake.model import Drive, Machine
+from specgen.resolve.limits import governing_setting, peak_limit, pressure_limit
+from specgen.trace import Value
 
 if TYPE_CHECKING:
     from specgen.results import Results
 
 
 def pressure_margin(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]:
-    """Required inlet pressure (plus any pressure-line loss) against the supply's relief setting
-    (a compensated pump's compensator setting), at every driving duty point."""
+    """Required inlet pressure (plus any pressure-line and valve loss) against the drive's pressure
+    limit (the lowest of relief, compensator and port relief settings), at every driving duty point."""
     warn = machine.thresholds.pressure_margin_warn.value
     for r in results.duties:
         if r.direction == "overrunning":
             continue
-        sup = machine.supply(machine.drive(r.drive).supply)
-        relief = sup.pressure_limit
-        setting = "compensator setting" if sup.compensated else "relief setting"
+        limit = _limit(machine, results, r.drive)
+        relief, setting = limit.value, governing_setting(limit)
         with_line = "supply_pressure_required" in r.values
         p_in = r["supply_pressure_required"] if with_line else r["inlet_pressure"]
         margin = below(p_in, relief)
@@ -35,11 +36,22 @@ def pressure_margin(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Ch
             "warn": f"is within {warn:.0%} of the {setting}: little room for losses and wear",
             "pass": f"leaves enough margin below the {setting}",
         }[st]
-        what = "Inlet pressure plus pressure-line loss" if with_line else "Inlet pressure"
-        device = "compensator" if sup.compensated else "relief"
+        valve, line = "valve_drop_to_motor" in r.values, "pressure_line_loss" in r.values
+        what = ("Inlet pressure plus line and valve losses" if valve and line else
+                "Inlet pressure plus valve drop" if valve else
+                "Inlet pressure plus pressure-line loss" if with_line else "Inlet pressure")
+        device = {"compensator setting": "compensator", "relief setting": "relief"}.get(setting, setting)
         yield Check("pressure_margin", "Pressure margin to relief", st, margin, warn, "ratio",
                     f"{what} {fmt(p_in, 'pressure')} against {device} {fmt(relief, 'pressure')} "
                     f"(margin {margin:.1%}) {text}.", drive=r.drive, duty=r.duty, margin=margin)
+
+
+def _limit(machine: Machine, results: Results, drive_id: str) -> Value:
+    dr = results.drive_result(drive_id)
+    if dr is not None and "pressure_limit" in dr.values:
+        return dr.values["pressure_limit"]
+    drive = machine.drive(drive_id)
+    return pressure_limit(drive, machine.supply(drive.supply))
 
 
 def supply_pressure(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]:
@@ -66,7 +78,9 @@ def supply_pressure(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Ch
 
 def _peak(machine: Machine, drive: Drive, fmt: Fmt) -> Iterator[Check]:
     rating = drive.motor.rating
-    relief = machine.supply(drive.supply).relief_setting
+    relief = peak_limit(drive, machine.supply(drive.supply))
+    port = drive.port_relief is not None and drive.port_relief <= machine.supply(drive.supply).relief_setting
+    what = "Port relief setting" if port else "Relief setting"
     if rating.peak_pressure is None:
         yield missing("peak_pressure", "Relief setting within peak rating", "peak pressure", drive.id)
         return
@@ -74,26 +88,62 @@ def _peak(machine: Machine, drive: Drive, fmt: Fmt) -> Iterator[Check]:
     st = status(margin)
     ok = st == "pass"
     yield Check("peak_pressure", "Relief setting within peak rating", st, relief, rating.peak_pressure, "pressure",
-                f"Relief setting {fmt(relief, 'pressure')} is {against(relief, rating.peak_pressure, ok)} the motor's "
+                f"{what} {fmt(relief, 'pressure')} is {against(relief, rating.peak_pressure, ok)} the motor's "
                 f"peak rating {fmt(rating.peak_pressure, 'pressure')}"
                 + ("." if ok else ": a pressure spike can reach the motor beyond its rating."),
                 drive=drive.id, margin=margin)
 
 
-def _continuous(drive: Drive, results: Results, fmt: Fmt) -> Iterator[Check]:
-    limit = drive.motor.rating.continuous_pressure
-    if limit is None:
-        yield missing("continuous_pressure", "Working pressure within continuous rating", "continuous pressure",
-                      drive.id)
-        return
+def _rating_for(drive: Drive, duration: str) -> tuple[float | None, str]:
+    """The rating step a duty point of ``duration`` is checked at; a missing intermittent rating
+    falls back to the continuous one (stricter)."""
+    rating = drive.motor.rating
+    if duration == "peak":
+        return rating.peak_pressure, "peak rating"
+    if duration == "intermittent" and rating.intermittent_pressure is not None:
+        share = f" (for at most {rating.intermittent_share:.0%} of the time)" if rating.intermittent_share else ""
+        return rating.intermittent_pressure, "intermittent rating" + share
+    return rating.continuous_pressure, "continuous rating"
+
+
+def _series_inlets(machine: Machine, results: Results, drive: Drive) -> dict[str, list]:
+    """duty id -> [(mode, inlet pressure in series)] for a drive on a series supply."""
+    out: dict[str, list] = {}
+    if machine.supply(drive.supply).circuit != "series":
+        return out
+    for sm in results.supply_modes:
+        for c in sm.contributions:
+            v = sm.drive_value(drive.id, "inlet_pressure") if c.drive == drive.id else None
+            if v is not None:
+                out.setdefault(c.duty, []).append((sm, v.value))
+    return out
+
+
+def _continuous(machine: Machine, drive: Drive, results: Results, fmt: Fmt) -> Iterator[Check]:
+    series = _series_inlets(machine, results, drive)
     for duty_id, r in results.drive_duties(drive.id).items():
+        limit, step = _rating_for(drive, drive.duty(duty_id).duration)
+        if limit is None:
+            yield missing("continuous_pressure", "Working pressure within continuous rating",
+                          step.split(" (")[0].replace("rating", "pressure"), drive.id)
+            return
         key = "braking_pressure" if r.direction == "overrunning" else "inlet_pressure"
+        if duty_id in series and r.direction != "overrunning":
+            for sm, p in series[duty_id]:
+                margin = below(p, limit)
+                st = status(margin)
+                yield Check("continuous_pressure", "Working pressure within continuous rating", st, p, limit,
+                            "pressure", f"In series the inlet sits at {fmt(p, 'pressure')} (its own differential, "
+                            f"the drives downstream and the return), {against(p, limit, st == 'pass')} the {step} "
+                            f"{fmt(limit, 'pressure')}.", drive=drive.id, duty=duty_id, supply=sm.supply,
+                            mode=sm.mode, margin=margin)
+            continue
         p = r[key]
         margin = below(p, limit)
         st = status(margin)
         what = "Pressure held at the outlet" if key == "braking_pressure" else "Inlet pressure"
         yield Check("continuous_pressure", "Working pressure within continuous rating", st, p, limit, "pressure",
-                    f"{what} {fmt(p, 'pressure')} is {against(p, limit, st == 'pass')} the continuous rating "
+                    f"{what} {fmt(p, 'pressure')} is {against(p, limit, st == 'pass')} the {step} "
                     f"{fmt(limit, 'pressure')}.", drive=drive.id, duty=duty_id, margin=margin)
 
 
@@ -140,7 +190,7 @@ def peak_pressure(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Chec
 def continuous_pressure(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]:
     """Working pressure (inlet; overrunning: the pressure held at the outlet) against the continuous rating."""
     for drive in machine.drives:
-        yield from _continuous(drive, results, fmt)
+        yield from _continuous(machine, drive, results, fmt)
 
 
 def outlet_pressure(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]:
@@ -159,7 +209,7 @@ def pressure_ratings(machine: Machine, results: Results, fmt: Fmt) -> Iterator[C
     """Peak and continuous pressure ratings, drive by drive."""
     for drive in machine.drives:
         yield from _peak(machine, drive, fmt)
-        yield from _continuous(drive, results, fmt)
+        yield from _continuous(machine, drive, results, fmt)
 
 
 def port_pressures(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]:

@@ -14,11 +14,16 @@ check's worst.
 
 Each check's margin, and what it is a fraction of:
 
-    pressure_margin         (relief - required inlet pressure [+ pressure-line loss]) / relief
-                            (a compensated pump: its compensator setting)
+    pressure_margin         (pressure limit - required inlet pressure [+ pressure-line and valve loss]) / limit,
+                            the drive's limit: lowest of relief, compensator and port relief settings
     supply_pressure         (relief or compensator setting - supply working pressure) / that setting
-    peak_pressure           (peak rating - relief setting) / peak rating
-    continuous_pressure     (continuous rating - inlet or held outlet pressure) / continuous rating
+    peak_pressure           (peak rating - relief setting or a lower port relief) / peak rating
+    continuous_pressure     (rating - inlet or held outlet pressure) / rating, the rating step the duty
+                            point's duration names; in series the inlet in each mode
+    port_relief_braking     (braking torque the port relief allows - braking torque needed) / needed
+    counterbalance_setting  (setting - factor x highest load-induced pressure) / that product; and
+                            (peak rating - setting) / peak rating
+    pump_inlet_pressure     (absolute pump inlet pressure - minimum inlet pressure) / minimum
     outlet_pressure         (allowed outlet pressure - back or series outlet pressure) / allowed outlet pressure
     case_pressure           (case rating - case pressure) / case rating
     max_speed               (maximum speed - motor speed) / maximum speed
@@ -27,7 +32,8 @@ Each check's margin, and what it is a fraction of:
     pump_flow               (pump delivery - flow demand) / pump delivery
     prime_mover_power       (prime mover power - pump input power) / prime mover power
     makeup_flow             (flow left for the inlet - overrunning motor's flow) / that motor's flow;
-                            worst status warn where a counterbalance or brake valve is declared
+                            worst status warn where a counterbalance or brake valve is declared;
+                            through makeup valves also (return pressure - 1 bar) / 1 bar, worst warn
     line_velocity           pressure and return lines: (failing velocity - velocity) / failing velocity,
                             the failing velocity being 1.5 times the rule-of-thumb upper limit, so the
                             warning band 1/3 starts at the upper limit; suction lines: (upper limit -
@@ -40,7 +46,8 @@ Each check's margin, and what it is a fraction of:
                             status warn when the cooler's rated temperature difference is missing
     displacement_choice     (displacement used or proposed - smallest for the target pressure) / that smallest;
                             a variable motor's duty speed: (speed reached - speed needed) / speed needed
-    breakaway               (breakaway torque at relief - starting torque needed) / torque needed
+    breakaway               (breakaway torque at the pressure limit - starting torque needed) / torque needed;
+                            in series per mode, the downstream drives' starting differentials at the outlet
     efficiency_table        None: inside or outside the maker's grid (fail outside: nothing is extrapolated)
     load_holding            None: a declaration, not a number (pass when a way to hold the load is declared)
 

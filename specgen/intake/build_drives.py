@@ -14,7 +14,8 @@ import math
 from specgen.intake import defaults
 from specgen.intake.build_fluid import build_lines
 from specgen.intake.build_loads import LOAD_MODELS, build_load
-from specgen.intake.model import EfficiencyTable, Drive, DutyPoint, Fluid, GearStage, Inertia, Motor, Rating
+from specgen.intake.model import (Counterbalance, DirectionalValve, Drive, DutyPoint, EfficiencyTable, Fluid, GearStage,
+                                  Inertia, Motor, Rating)
 from specgen.intake.quantities import Builder
 
 GEAR_RANGE = (1e-3, 1e6)
@@ -37,7 +38,29 @@ def build_drive(b: Builder, did: str, dr: dict, on_series: bool, fluid: Fluid | 
         load_holding=dr.get("load_holding"), duty_points=duties, notes=dr.get("notes", ""),
         lines=build_lines(b, dr["lines"], path + ("lines",), fluid) if "lines" in dr else None,
         available_flow=b.quantity(dr, "available_flow", path, "flow"),
+        port_relief=b.quantity(dr, "port_relief", path, "pressure"),
+        directional_valve=_valve(b, dr, path), counterbalance=_counterbalance(b, dr, path),
     )
+
+
+def _valve(b: Builder, dr: dict, path: tuple) -> DirectionalValve | None:
+    if "directional_valve" not in dr:
+        return None
+    v, vpath = dr["directional_valve"], path + ("directional_valve",)
+    return DirectionalValve(
+        rated_flow=b.quantity(v, "rated_flow", vpath, "flow"),
+        drop_to_motor=b.quantity(v, "drop_to_motor", vpath, "pressure", sign="nonnegative", default=0.0),
+        drop_to_tank=b.quantity(v, "drop_to_tank", vpath, "pressure", sign="nonnegative", default=0.0))
+
+
+def _counterbalance(b: Builder, dr: dict, path: tuple) -> Counterbalance | None:
+    if "counterbalance" not in dr:
+        return None
+    c, cpath = dr["counterbalance"], path + ("counterbalance",)
+    k = c["pilot_ratio"]
+    if not 0 < k <= 100:  # also refuses NaN
+        b.fail(cpath + ("pilot_ratio",), f"pilot ratio {k!r} must be a number above 0 and at most 100 (e.g. 3 for 3:1)")
+    return Counterbalance(setting=b.quantity(c, "setting", cpath, "pressure"), pilot_ratio=float(k))
 
 
 def check_targets(b: Builder, drives: tuple[Drive, ...]) -> None:
@@ -55,8 +78,9 @@ def _gear(b: Builder, dr: dict, path: tuple) -> GearStage:
     if not GEAR_RANGE[0] <= g["ratio"] <= GEAR_RANGE[1]:  # also refuses NaN
         b.fail(gpath + ("ratio",), f"gear ratio {g['ratio']!r} must be a number from {GEAR_RANGE[0]:g} "
                                    f"to {GEAR_RANGE[1]:g} (motor speed / load speed)")
-    return GearStage(ratio=float(g["ratio"]),
-                     efficiency=b.ratio(g, "efficiency", gpath, defaults.GEAR_EFFICIENCY, defaults.GEAR_BASIS))
+    running = b.ratio(g, "efficiency", gpath, defaults.GEAR_EFFICIENCY, defaults.GEAR_BASIS)
+    starting = b.ratio(g, "starting_efficiency", gpath, 1.0) if "starting_efficiency" in g else None
+    return GearStage(ratio=float(g["ratio"]), efficiency=running, starting_efficiency=starting)
 
 
 def _motor(b: Builder, m: dict, path: tuple, back_pressure: float | None) -> Motor:
@@ -78,8 +102,9 @@ def _motor(b: Builder, m: dict, path: tuple, back_pressure: float | None) -> Mot
     rating = Rating(**{
         key: b.quantity(r, key, rpath, "speed" if key.endswith("speed") else "pressure")
         for key in ("continuous_pressure", "peak_pressure", "min_speed", "max_speed",
-                    "max_outlet_pressure", "max_case_pressure")
-    })
+                    "max_outlet_pressure", "max_case_pressure", "intermittent_pressure")
+    }, intermittent_share=b.ratio(r, "intermittent_share", rpath, 0.0, efficiency=True).value
+        if "intermittent_share" in r else None)
     if rating.min_speed and rating.max_speed and rating.min_speed >= rating.max_speed:
         b.fail(rpath + ("min_speed",), "minimum speed rating must be below the maximum")
     target = b.quantity(m, "target_pressure", path, "pressure")
@@ -160,4 +185,5 @@ def _duty(b: Builder, uid: str, u: dict, path: tuple, motor: Motor) -> DutyPoint
     return DutyPoint(
         id=uid, title=u.get("title", uid), torque=torque, speed=speed, direction=u.get("direction"),
         starting_torque=starting_torque, load=load, inertia=inertia, displacement=stated,
+        duration=u.get("duration", "continuous"),
     )

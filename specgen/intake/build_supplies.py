@@ -41,6 +41,10 @@ def build_supply(b: Builder, sid: str, s: dict, fluid: Fluid | None) -> Supply:
         prime_mover_power=prime_mover_power, prime_mover_speed=pm_speed,
         drive_ratio=float(ratio) if ratio is not None else 1.0, circuit=s.get("circuit", "parallel"),
         surplus_to=surplus, open_centre_pressure=oc, suction_line=suction,
+        suction_head=b.quantity(s.get("suction", {}), "head", path + ("suction",), "length", sign="any"),
+        strainer_drop=b.quantity(s.get("suction", {}), "strainer_drop", path + ("suction",), "pressure",
+                                 sign="nonnegative", default=0.0),
+        feeds=s.get("feeds"),
     )
 
 
@@ -53,8 +57,13 @@ def _pump(b: Builder, p: dict, ppath: tuple) -> Pump:
     if "delivery" in p and "volumetric_efficiency" not in p:
         # a delivered flow already includes leakage; no assumption is made about it
         volumetric = Ratio(1.0)
+    if "min_inlet_pressure" in p:
+        min_inlet = Ratio(b.quantity(p, "min_inlet_pressure", ppath, "pressure"))
+    else:
+        min_inlet = Ratio(defaults.PUMP_MIN_INLET, assumed=True, basis=defaults.PUMP_MIN_INLET_BASIS)
     return Pump(displacement, shaft_speed, delivery, volumetric, overall, control=p.get("control", "fixed"),
-                compensator_setting=b.quantity(p, "compensator_setting", ppath, "pressure"))
+                compensator_setting=b.quantity(p, "compensator_setting", ppath, "pressure"),
+                min_inlet_pressure=min_inlet)
 
 
 def _control(b: Builder, s: dict, path: tuple, pump: Pump, relief: float | None) -> None:

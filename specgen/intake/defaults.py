@@ -20,8 +20,16 @@ PUMP_VOLUMETRIC = 0.92
 PUMP_OVERALL = 0.85
 PUMP_BASIS = "typical for a positive-displacement pump (from memory); use the maker's data"
 
+PUMP_MIN_INLET = 0.8e5  # Pa absolute
+PUMP_MIN_INLET_BASIS = ("typical minimum absolute inlet pressure of gear and piston pumps, continuous "
+                        "(from memory, catalogue practice); use the maker's data")
+
 GEAR_EFFICIENCY = 0.97
 GEAR_BASIS = "typical for one spur or planetary gear stage (from memory)"
+
+GEAR_STARTING_BASIS = "running efficiency taken from rest; a gear stage starts with less (maker's data)"
+
+COUNTERBALANCE_FACTOR = 1.3  # setting / highest load-induced pressure (common practice, no source)
 
 OIL_DENSITY = 870.0  # kg/m^3, mineral hydraulic oil at about 15 degC (from memory)
 OIL_BASIS = "typical mineral hydraulic oil (from memory)"

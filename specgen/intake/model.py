@@ -12,6 +12,7 @@ import math
 from dataclasses import dataclass, field
 from functools import cached_property
 
+from specgen.intake import defaults
 from specgen.iso_vg import GRADES_WITHOUT_TYPICAL_100C
 
 
@@ -66,6 +67,8 @@ class Pump:
     overall_efficiency: Ratio
     control: str = "fixed"  # "fixed" or "pressure_compensated"
     compensator_setting: float | None = None  # Pa
+    # Pa absolute, carried as a Ratio so "assumed" travels with it
+    min_inlet_pressure: Ratio = Ratio(defaults.PUMP_MIN_INLET, assumed=True, basis=defaults.PUMP_MIN_INLET_BASIS)
 
 
 @dataclass(frozen=True)
@@ -82,6 +85,9 @@ class Supply:
     surplus_to: str = "working_pressure"  # "working_pressure", "relief" or "open_centre"
     open_centre_pressure: float | None = None  # Pa
     suction_line: Line | None = None
+    suction_head: float | None = None  # m, oil level above the pump inlet (negative: below)
+    strainer_drop: float = 0.0  # Pa, suction strainer pressure drop
+    feeds: str | None = None  # what a supply with no drives in the spec feeds (a charge circuit...)
 
     @property
     def compensated(self) -> bool:
@@ -103,6 +109,8 @@ class Rating:
     max_speed: float | None = None
     max_outlet_pressure: float | None = None
     max_case_pressure: float | None = None
+    intermittent_pressure: float | None = None
+    intermittent_share: float | None = None  # share of the time the intermittent rating may be used
 
 
 @dataclass(frozen=True)
@@ -144,6 +152,7 @@ class Motor:
 class GearStage:
     ratio: float
     efficiency: Ratio
+    starting_efficiency: Ratio | None = None  # None: the running efficiency, marked assumed where used
 
 
 @dataclass(frozen=True)
@@ -204,6 +213,24 @@ class DutyPoint:
     load: WinchLoad | WheelLoad | BeltLoad | SpeedSquaredLoad | None = None
     inertia: Inertia | None = None
     displacement: float | None = None  # m^3/rev a variable motor is set to at this duty point
+    duration: str = "continuous"  # "continuous", "intermittent" or "peak": the rating step it is checked at
+
+
+@dataclass(frozen=True)
+class DirectionalValve:
+    """A drive's directional valve: pressure drops given at a rated flow (orifice law scales them)."""
+
+    rated_flow: float  # m^3/s
+    drop_to_motor: float = 0.0  # Pa at rated flow, supply port to motor port
+    drop_to_tank: float = 0.0  # Pa at rated flow, motor port to tank port
+
+
+@dataclass(frozen=True)
+class Counterbalance:
+    """Counterbalance (over-centre) valve on the load side of a motor."""
+
+    setting: float  # Pa, opening pressure with no pilot pressure
+    pilot_ratio: float  # k: the pilot pressure's advantage over the load-port pressure
 
 
 @dataclass(frozen=True)
@@ -220,6 +247,16 @@ class Drive:
     notes: str = ""
     lines: Lines | None = None
     available_flow: float | None = None  # m^3/s the valve section gives at most; None: pump delivery
+    port_relief: float | None = None  # Pa, port or crossover relief setting across the motor
+    directional_valve: DirectionalValve | None = None
+    counterbalance: Counterbalance | None = None
+
+    @property
+    def pump_fed_overrun(self) -> bool:
+        """Does the pump fill the inlet of an overrunning duty point (lowering through a counterbalance
+        valve), rather than makeup valves from the return line."""
+        return self.counterbalance is not None or self.load_holding in (
+            "counterbalance_valve", "counterbalance_valve_and_brake")
 
     def duty(self, duty_id: str) -> DutyPoint:
         return next(d for d in self.duty_points if d.id == duty_id)
@@ -241,6 +278,7 @@ class Thresholds:
     breakaway_margin_warn: Ratio = Ratio(0.10)
     speed_margin_warn: Ratio = Ratio(0.05)
     heat_margin_warn: Ratio = Ratio(0.10)
+    counterbalance_factor: Ratio = Ratio(1.3)  # setting / highest load-induced pressure
 
 
 @dataclass(frozen=True)

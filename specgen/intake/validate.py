@@ -20,7 +20,7 @@ from specgen.intake.build_cycles import build_cycles, build_max_oil_temperature
 from specgen.intake.build_fluid import build_cooler, build_fluid, build_reservoir
 from specgen.intake.build_sizing import build_sizing
 from specgen.intake.build_supplies import build_supply
-from specgen.intake.model import Machine, Mode, Thresholds
+from specgen.intake.model import Machine, Mode, Ratio, Thresholds
 from specgen.intake.quantities import Builder
 from specgen.intake.read import Source, problem
 from specgen.intake.schema import dotted
@@ -121,7 +121,7 @@ def build_with_corners(source: Source, directions: Directions,
     t = d.get("thresholds", {})
     thresholds = Thresholds(**{
         k: b.ratio(t, k, ("thresholds",), v, efficiency=False) for k, v in defaults.THRESHOLDS.items()
-    })
+    }, counterbalance_factor=_counterbalance_factor(b, t))
     model = Machine(
         id=machine["id"], title=machine["title"], revision=str(machine["revision"]),
         description=machine.get("description", ""), display_units=machine.get("display_units", "SI"),
@@ -164,8 +164,27 @@ def _named_tables(b: Builder, d: dict, model: Machine) -> Machine:
     return replace(model, drives=tuple(drives))
 
 
+def _counterbalance_factor(b: Builder, t: dict) -> Ratio:
+    if "counterbalance_factor" not in t:
+        return Ratio(defaults.COUNTERBALANCE_FACTOR)
+    here = ("thresholds", "counterbalance_factor")
+    value = b.parse(t["counterbalance_factor"], "ratio", here)
+    if value is None:
+        return Ratio(defaults.COUNTERBALANCE_FACTOR)
+    if not 1 <= value <= 10:
+        b.fail(here, f"{t['counterbalance_factor']!r} must lie from 1 to 10, e.g. 1.3")
+    return Ratio(value)
+
+
 def _references(b: Builder, d: dict) -> None:
     supplies, drives = d["supplies"], d["drives"]
+    fed = {dr["supply"] for dr in drives.values()}
+    # a drive naming an unknown supply is reported on its own: the supply it meant may be the one left bare
+    named = all(dr["supply"] in supplies for dr in drives.values())
+    for sid, s in supplies.items():
+        if named and sid not in fed and "feeds" not in s:
+            b.fail(("supplies", sid), f"supply '{sid}' feeds no drive; give it a drive, remove it, or say what it "
+                                      "supplies outside the spec with feeds: <text> (e.g. a charge circuit)")
     for did, dr in drives.items():
         if dr["supply"] not in supplies:
             b.fail(("drives", did, "supply"),

@@ -12,8 +12,14 @@ from specgen.safe_text import escape
 DUTY_COLUMNS = (
     ("motor_torque", "T motor"), ("motor_speed", "n motor"), ("pressure_differential", "dp"),
     ("inlet_pressure", "p in"), ("flow_demand", "q"), ("shaft_power", "P shaft"),
-    ("relief_torque", "T at relief"),
+    ("relief_torque", "T at limit"),
 )
+# Pressure-budget values beyond the table's columns, listed where a duty point or a series mode has them
+BUDGET_KEYS = ("static_load_torque", "starting_torque_motor", "breakaway_torque", "valve_drop_to_motor",
+               "valve_drop_to_tank", "supply_pressure_required", "braking_torque_needed", "port_relief_braking_torque",
+               "load_induced_pressure", "counterbalance_heat")
+SERIES_KEYS = ("inlet_pressure", "outlet_pressure", "relief_torque", "start_outlet_pressure", "breakaway_torque",
+               "makeup_available", "makeup_pressure")
 SUPPLY_COLUMNS = (
     ("flow_demand", "demand"), ("pump_delivery", "delivery"), ("flow_surplus", "surplus"),
     ("working_pressure", "p work"), ("pump_input_power", "P pump in"), ("prime_mover_power", "P available"),
@@ -63,7 +69,8 @@ def fluid_sizing_heat_lines(o: Outcome, system: str) -> list[str]:
     r = o.results
     picked = [("fluid", v) for v in r.fluid.values.values()]
     picked += [(f"drive {d.drive}", v) for d in r.drives for v in d.values.values()]
-    picked += [(f"supply {s.supply}", v) for s in r.supplies for k, v in s.values.items() if k.startswith("worst_")]
+    picked += [(f"supply {s.supply}", v) for s in r.supplies for k, v in s.values.items()
+               if k.startswith("worst_") or k.startswith("pump_") and "inlet" in k]
     picked += [(f"mode {m.mode}", v) for m in r.modes for v in m.values.values()]
     if not picked:
         return []
@@ -91,6 +98,23 @@ def cycle_lines(o: Outcome, system: str) -> list[str]:
     return ["", "Duty cycles and oil temperature"] + table(["where", "quantity", "value", "note"], rows)
 
 
+def budget_lines(o: Outcome, system: str) -> list[str]:
+    """Starting, valve and braking values of each duty point, and each drive's values in a series or
+    with makeup flow in each mode, one line each."""
+    r = o.results
+    picked = [(f"{d.drive} at {d.duty}", d.values[k]) for d in r.duties for k in BUDGET_KEYS if k in d.values
+              and (k != "breakaway_torque" or "starting_torque_motor" in d.values)
+              and (k != "supply_pressure_required" or "valve_drop_to_motor" in d.values)]
+    picked += [(f"{sm.supply}/{sm.mode}: {d}", vals[k]) for sm in r.supply_modes for d, vals in sm.per_drive.items()
+               for k in SERIES_KEYS if k in vals]
+    if not picked:
+        return []
+    rows = [[where, v.label, format_si(v.value, v.kind, system) + (" (assumed)" if v.assumed else ""), v.note]
+            for where, v in picked]
+    return ["", "Pressure budget: starting, valves, braking, series"] + table(["where", "quantity", "value", "note"],
+                                                                            rows)
+
+
 def render(o: Outcome, quiet: bool = False, review=None) -> str:
     """``review``: the spec's review.ReviewStatus, shown under the headline when given."""
     system = o.machine.display_units
@@ -111,6 +135,10 @@ def render(o: Outcome, quiet: bool = False, review=None) -> str:
         out += table(["supply", "mode"] + [h for _, h in SUPPLY_COLUMNS], rows)
         out += fluid_sizing_heat_lines(o, system)
         out += cycle_lines(o, system)
+        out += budget_lines(o, system)
+        out += [f"Supply {escape(s.id)} feeds no drive in this spec ({escape(s.feeds)}): not computed"
+                for s in o.machine.supplies if s.feeds is not None and not any(
+                    d.supply == s.id for d in o.machine.drives)]
         out += ["", "Checks (failures and warnings first)"]
     problems = checks_lines(o, only_problems=quiet)
     out += problems

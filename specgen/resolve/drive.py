@@ -1,6 +1,6 @@
 """What belongs to a drive as a whole: the displacement it is computed at (given, or proposed from a
 target pressure), and for a variable motor its available flow, top speed at the minimum stop and
-torque/speed envelope at the relief setting.
+torque/speed envelope at the drive's pressure limit (resolve/limits.py).
 
 Pure: the model's SI floats in, traced Values out.
 """
@@ -11,6 +11,7 @@ from dataclasses import dataclass, field
 
 from specgen.calc import sizing as sizing_calc
 from specgen.calc import variable
+from specgen.resolve import limits
 from specgen.resolve.record import Record, motor_eff
 from specgen.results import DriveResult
 from specgen.intake.model import Drive, Sizing, Supply
@@ -36,14 +37,16 @@ class DriveSetup:
 
 
 def setup_drive(drive: Drive, sup: Supply, motor_torques: dict[str, tuple[float, str]], p_out: float,
-                q_pump: float, sizing: Sizing) -> DriveSetup:
-    """``motor_torques``: duty id -> (motor torque N*m, direction); ``p_out``: back pressure without line losses."""
+                q_pump: float, sizing: Sizing, starts: dict[str, float] | None = None) -> DriveSetup:
+    """``motor_torques``: duty id -> (motor torque N*m, direction); ``p_out``: back pressure without line losses;
+    ``starts``: duty id -> torque the motor must give from rest (N*m)."""
     m = drive.motor
     rec = Record()
+    p_limit = rec.put(limits.pressure_limit(drive, sup))
     per_duty = {}
     proposed_size = proposed_from = None
     if m.target_pressure is not None:
-        per_duty, proposed_size = _size(drive, rec, motor_torques, p_out, sizing)
+        per_duty, proposed_size = _size(drive, rec, motor_torques, p_out, sizing, starts or {}, p_limit)
         if proposed_size is not None:
             proposed_from = "stocked" if sizing.stock is not None else sizing.series
     if m.displacement_given:
@@ -55,14 +58,15 @@ def setup_drive(drive: Drive, sup: Supply, motor_torques: dict[str, tuple[float,
     envelope = ()
     if lo != hi:
         q_avail = _variable(drive, sup, rec, lo, q_pump)
-    if lo != hi and sup.relief_setting > p_out:
+    if lo != hi and p_limit > p_out:
         envelope = variable.torque_speed_envelope(
-            lo, hi, q_avail, m.volumetric_efficiency.value, m.hydromechanical_efficiency.value, sup.relief_setting,
+            lo, hi, q_avail, m.volumetric_efficiency.value, m.hydromechanical_efficiency.value, p_limit,
             p_out, m.rating.max_speed, points=ENVELOPE_POINTS)
     return DriveSetup(DriveResult(drive.id, rec.values, envelope, proposed_from), lo, hi, proposed, q_avail, per_duty)
 
 
-def _size(drive: Drive, rec: Record, motor_torques: dict, p_out: float, sizing: Sizing):
+def _size(drive: Drive, rec: Record, motor_torques: dict, p_out: float, sizing: Sizing, starts: dict,
+          p_limit: float):
     m = drive.motor
     eta_hm = m.hydromechanical_efficiency
     p_t = Input("p_target", "target inlet pressure", m.target_pressure, "pressure")
@@ -78,6 +82,19 @@ def _size(drive: Drive, rec: Record, motor_torques: dict, p_out: float, sizing: 
             "the displacement that gives this torque at the target pressure",
             (Input("T", "motor torque", torque, "torque"), p_t, p_o, motor_eff(drive.id, "hydromechanical", eta_hm)),
             SRC_SIZING)
+        start = starts.get(duty_id)
+        if start is not None and p_limit > p_out:
+            eta_st = m.starting_efficiency
+            at_start = sizing_calc.minimum_displacement(start, p_limit, p_out, eta_st.value)
+            if at_start > per_duty[duty_id].value:
+                per_duty[duty_id] = Value(
+                    "minimum_displacement", "Smallest displacement to start the load from rest", "Vg_min",
+                    at_start, "displacement", "Vg_min = 2*pi*T_need / ((p_limit - p_out) * eta_start)",
+                    "the displacement that starts the load at the pressure limit (more than the target pressure "
+                    "needs while running)",
+                    (Input("T_need", "starting torque needed at motor", start, "torque"),
+                     Input("p_limit", "pressure limit", p_limit, "pressure"), p_o,
+                     motor_eff(drive.id, "starting", eta_st)), SRC_SIZING)
     if not per_duty:
         return per_duty, None
     governing = max(per_duty, key=lambda k: per_duty[k].value)

@@ -10,7 +10,10 @@ Pure: takes the model's SI floats, returns Results; no I/O, no pint.
 
 from __future__ import annotations
 
-from specgen.calc import gearing, loads, motor, variable
+from specgen.calc import gearing, loads, motor, valves, variable
+from specgen.resolve import limits
+from specgen.resolve.limits import governing_setting
+from specgen.resolve.valves import budget_valves as _budget_valves
 from specgen.resolve.record import Record, eff, motor_eff
 from specgen.resolve.drive import DriveSetup, setup_drive
 from specgen.resolve.efficiency import duty_efficiencies
@@ -26,6 +29,8 @@ from specgen.trace import Input, Value, given
 SRC_MOTOR = "positive-displacement motor relations (fluid-power textbook)"
 SRC_GEAR = "gear-stage power balance (machine-design textbook)"
 SRC_INERTIA = "Newton's second law for rotation, inertia referred through the gear stage"
+SRC_ORIFICE = "orifice law dp = dp_rated*(q/q_rated)^2 (turbulent flow through a fixed restriction; textbook)"
+SRC_CB = "counterbalance valve opening balance p_load + k*p_pilot = p_set (valve maker's relation)"
 SRC_CONTROL = "variable motor control: largest displacement that reaches the speed, n = q*eta_v/Vg"
 
 
@@ -159,11 +164,28 @@ def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup
                     rec.put(value)
                 losses[kind] = rec.get(f"{kind}_line_loss")
     p_out0 = back_pressure(drive, sup)
-    if "return" in losses:
-        p_out = rec.put(Value("back_pressure", "Back pressure at outlet", "p_out", p_out0 + losses["return"], "pressure",
-                              "p_out = p_return + dp_return_line", "return pressure plus the return-line loss",
-                              (Input("p_return", "return pressure", p_out0, "pressure"),
-                               Input("dp_return_line", "return-line loss", losses["return"], "pressure")), SRC_MOTOR))
+    valve = drive.directional_valve
+    if valve is not None:
+        for key, label, drop in (("valve_drop_to_motor", "Directional valve drop to motor", valve.drop_to_motor),
+                                 ("valve_drop_to_tank", "Directional valve drop to tank", valve.drop_to_tank)):
+            losses[key] = rec.put(Value(
+                key, label, "dp_valve", valves.orifice_drop(drop, valve.rated_flow, q), "pressure",
+                "dp_valve = dp_rated * (q / q_rated)^2", "the valve's drop at its rated flow, scaled with the square "
+                "of the flow", (Input("dp_rated", "drop at rated flow", drop, "pressure"),
+                                Input("q_rated", "rated flow", valve.rated_flow, "flow"),
+                                Input("q", "flow demand", q, "flow")), SRC_ORIFICE))
+    if "return" in losses or "valve_drop_to_tank" in losses:
+        ins = [Input("p_return", "return pressure", p_out0, "pressure")]
+        terms = ["p_return"]
+        if "return" in losses:
+            ins.append(Input("dp_return_line", "return-line loss", losses["return"], "pressure"))
+            terms.append("dp_return_line")
+        if "valve_drop_to_tank" in losses:
+            ins.append(Input("dp_valve,T", "directional valve drop to tank", losses["valve_drop_to_tank"], "pressure"))
+            terms.append("dp_valve,T")
+        p_out = rec.put(Value("back_pressure", "Back pressure at outlet", "p_out", sum(i.value for i in ins),
+                              "pressure", "p_out = " + " + ".join(terms),
+                              "return pressure plus the losses between the motor outlet and tank", tuple(ins), SRC_MOTOR))
     else:
         p_out = rec.put(given("back_pressure", "Back pressure at outlet", "p_out", p_out0, "pressure"))
     pout_in = Input("p_out", "back pressure", p_out, "pressure")
@@ -173,12 +195,29 @@ def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup
                            motor.braking_pressure(t_m, vg, eta_hm.value), "pressure",
                            "dp = 2*pi*T*eta_hm / Vg", "pressure the motor builds pumping against its outlet valve",
                            (t_in, hm_in, vg_in), SRC_MOTOR))
-        p_in = rec.put(Value("inlet_pressure", "Inlet pressure required", "p_in", p_out, "pressure", "p_in = p_out",
-                             "the supply only keeps the inlet filled; the load is held at the outlet",
-                             (pout_in,), SRC_MOTOR))
-        rec.put(Value("braking_pressure", "Pressure held at outlet port", "p_hold", dp + p_out, "pressure",
-                      "p_hold = dp + p_out", "braking differential on top of the inlet pressure",
-                      (Input("dp", "braking differential", dp, "pressure"), pout_in), SRC_MOTOR))
+        cb = drive.counterbalance
+        p_pilot = valves.counterbalance_pilot_pressure(cb.setting, dp, cb.pilot_ratio) if cb is not None else 0.0
+        if p_pilot > 0:
+            p_in = rec.put(Value("inlet_pressure", "Inlet (pilot) pressure to open the counterbalance valve", "p_in",
+                                 p_pilot, "pressure", "p_in = (p_set - dp) / (1 + k)",
+                                 "the pump holds the valve open through its pilot while the load lowers",
+                                 (Input("p_set", "counterbalance setting", cb.setting, "pressure"),
+                                  Input("dp", "braking differential", dp, "pressure"),
+                                  Input("k", "pilot ratio", cb.pilot_ratio, "number")), SRC_CB))
+        else:
+            p_in = rec.put(Value("inlet_pressure", "Inlet pressure required", "p_in", p_out, "pressure", "p_in = p_out",
+                                 "the supply only keeps the inlet filled; the load is held at the outlet"
+                                 + ("" if cb is None else " (the load alone opens the counterbalance valve)"),
+                                 (pout_in,), SRC_MOTOR))
+        if p_pilot > 0:  # the load port sits at the inlet (pilot) pressure plus the braking differential
+            rec.put(Value("braking_pressure", "Pressure held at outlet port", "p_hold", dp + p_in, "pressure",
+                          "p_hold = dp + p_in", "braking differential on top of the inlet (pilot) pressure",
+                          (Input("dp", "braking differential", dp, "pressure"),
+                           Input("p_in", "inlet (pilot) pressure", p_in, "pressure")), SRC_CB))
+        else:
+            rec.put(Value("braking_pressure", "Pressure held at outlet port", "p_hold", dp + p_out, "pressure",
+                          "p_hold = dp + p_out", "braking differential on top of the inlet pressure",
+                          (Input("dp", "braking differential", dp, "pressure"), pout_in), SRC_MOTOR))
     else:
         dp = rec.put(Value("pressure_differential", "Pressure differential required", "dp",
                            motor.pressure_for_torque(t_m, vg, eta_hm.value), "pressure",
@@ -187,12 +226,20 @@ def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup
         p_in = rec.put(Value("inlet_pressure", "Inlet pressure required", "p_in", dp + p_out, "pressure",
                              "p_in = dp + p_out", "pressure differential plus back pressure",
                              (Input("dp", "pressure differential", dp, "pressure"), pout_in), SRC_MOTOR))
-    if "pressure" in losses:
+    if "pressure" in losses or "valve_drop_to_motor" in losses:
+        ins = [Input("p_in", "inlet pressure", p_in, "pressure")]
+        terms = ["p_in"]
+        if "pressure" in losses:
+            ins.append(Input("dp_pressure_line", "pressure-line loss", losses["pressure"], "pressure"))
+            terms.append("dp_pressure_line")
+        if "valve_drop_to_motor" in losses:
+            ins.append(Input("dp_valve,P", "directional valve drop to motor", losses["valve_drop_to_motor"],
+                             "pressure"))
+            terms.append("dp_valve,P")
         rec.put(Value("supply_pressure_required", "Pressure the supply must give", "p_supply",
-                      p_in + losses["pressure"], "pressure", "p_supply = p_in + dp_pressure_line",
-                      "motor inlet pressure plus the pressure-line loss",
-                      (Input("p_in", "inlet pressure", p_in, "pressure"),
-                       Input("dp_pressure_line", "pressure-line loss", losses["pressure"], "pressure")), SRC_MOTOR))
+                      sum(i.value for i in ins), "pressure", "p_supply = " + " + ".join(terms),
+                      "motor inlet pressure plus the losses between the supply and the motor inlet", tuple(ins),
+                      SRC_MOTOR))
     rec.put(Value("shaft_power", "Shaft power" + (" absorbed from load" if overrun else ""), "P",
                   motor.shaft_power(t_m, n_m), "power", "P = 2*pi*n*T", "torque times angular speed",
                   (t_in, n_in), SRC_MOTOR))
@@ -201,28 +248,31 @@ def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup
                   (Input("q", "flow demand", q, "flow"), Input("dp", "pressure differential", dp, "pressure")),
                   SRC_MOTOR))
 
-    dp_relief = sup.relief_setting - p_out
-    relief_in = Input("p_relief", "relief setting", sup.relief_setting, "pressure")
-    t_relief = rec.put(Value("relief_torque", "Motor torque at relief setting", "T_relief",
+    limit = setup.result.values["pressure_limit"]
+    p_limit = limit.value
+    dp_relief = p_limit - p_out
+    relief_in = Input("p_limit", f"pressure limit ({governing_setting(limit)})", p_limit, "pressure")
+    t_relief = rec.put(Value("relief_torque", "Motor torque at the pressure limit", "T_relief",
                              motor.torque(vg, dp_relief, eta_hm.value), "torque",
-                             "T_relief = Vg * (p_relief - p_out) * eta_hm / (2*pi)",
-                             "the most torque the supply's relief setting lets the motor give",
+                             "T_relief = Vg * (p_limit - p_out) * eta_hm / (2*pi)",
+                             "the most torque the drive's pressure limit lets the motor give",
                              (vg_in, relief_in, pout_in, hm_in), SRC_MOTOR))
-    rec.put(Value("relief_torque_load", "Load torque at relief setting", "T_relief,L",
+    rec.put(Value("relief_torque_load", "Load torque at the pressure limit", "T_relief,L",
                   gearing.load_torque(t_relief, ratio, eta_g.value), "torque", "T_relief,L = T_relief * i * eta_g",
-                  "relief torque through the gear stage",
-                  (Input("T_relief", "relief torque", t_relief, "torque"), i_in, g_in), SRC_GEAR))
-    rec.put(Value("breakaway_torque", "Breakaway torque at relief setting", "T_start",
+                  "torque at the pressure limit through the gear stage",
+                  (Input("T_relief", "torque at the pressure limit", t_relief, "torque"), i_in, g_in), SRC_GEAR))
+    rec.put(Value("breakaway_torque", "Breakaway torque at the pressure limit", "T_start",
                   motor.torque(vg, dp_relief, eta_st.value), "torque",
-                  "T_start = Vg * (p_relief - p_out) * eta_start / (2*pi)",
+                  "T_start = Vg * (p_limit - p_out) * eta_start / (2*pi)",
                   "torque from rest, with starting efficiency",
                   (vg_in, relief_in, pout_in, motor_eff(drive.id, "starting", eta_st)), SRC_MOTOR))
-    if duty.starting_torque is not None:
-        ts_in = Input("T_L,start", "load starting torque", duty.starting_torque, "torque")
-        rec.put(Value("starting_torque_motor", "Starting torque needed at motor", "T_need",
-                      gearing.motor_torque_driving(duty.starting_torque, ratio, eta_g.value), "torque",
-                      "T_need = T_L,start / (i * eta_g)", "load starting torque referred to the motor shaft",
-                      (ts_in, i_in, g_in), SRC_GEAR))
+    static = None
+    for value in limits.static_load_values(duty, rec.values):
+        static = rec.put(value)
+    need = limits.starting_need(drive, duty, static)
+    if need is not None:
+        rec.put(need)
+    _budget_valves(rec, drive, duty, vg, p_out, eta_hm, n_m, q)
     return DutyResult(drive.id, duty.id, duty.direction, rec.values)
 
 
@@ -235,8 +285,14 @@ def resolve(machine: Machine) -> Results:
         sup = machine.supply(drive.supply)
         mech = {duty.id: duty_mechanics(drive, duty) for duty in drive.duty_points}
         torques = {u.id: (mech[u.id].get("motor_torque"), u.direction) for u in drive.duty_points}
+        starts = {}
+        for u in drive.duty_points:
+            static = [v.value for v in limits.static_load_values(u, mech[u.id].values)]
+            need = limits.starting_need(drive, u, static[0] if static else None)
+            if need is not None:
+                starts[u.id] = need.value
         setup = setup_drive(drive, sup, torques, back_pressure(drive, sup), bases[sup.id]["pump_delivery"].value,
-                            machine.sizing)
+                            machine.sizing, starts)
         drive_results.append(setup.result)
         for duty in drive.duty_points:
             duties[(drive.id, duty.id)] = resolve_duty(drive, duty, sup, mech[duty.id], setup, fluid)

@@ -20,6 +20,8 @@ from __future__ import annotations
 from specgen.calc import heat, supply as pump
 from specgen.resolve.record import Record, eff
 from specgen.resolve.lines import line_values
+from specgen.resolve.series import series_start
+from specgen.resolve.suction import suction_values
 from specgen.results import Contribution, FluidResult, ModeResult, SupplyModeResult, SupplyResult
 from specgen.intake.model import Machine, Supply
 from specgen.trace import Input, Value, given, indexed
@@ -59,6 +61,9 @@ def supply_base(sup: Supply, fluid: FluidResult) -> dict[str, Value]:
         q_s = p.displacement * n_p if p.displacement is not None else rec.get("pump_delivery")
         for value in line_values("suction", sup.suction_line, q_s, fluid["kinematic_viscosity"], fluid["density"]):
             rec.put(value)
+    density = fluid["density"] if "density" in fluid.values else None
+    for value in suction_values(sup, density, rec.get("suction_line_loss")):
+        rec.put(value)
     return rec.values
 
 
@@ -72,18 +77,30 @@ def resolve_supply_mode(machine: Machine, sup: Supply, mode, duties: dict, base:
         running.sort(key=lambda x: machine.drive_position(x[0]))
     contributions = tuple(Contribution(d, u, duties[(d, u)]["flow_demand"]) for d, u in running)
     rec = Record()
-    flows = tuple(Input(indexed("q", c.drive), f"{c.drive} at {c.duty}", c.flow, "flow") for c in contributions)
-    if sup.circuit == "series":
-        demand = rec.put(Value("flow_demand", "Series line flow", "q_line", max(c.flow for c in contributions), "flow",
+    # an overrunning motor fed through makeup valves from the return line draws nothing from the pump
+    pumped = [(d, u) for d, u in running if _pump_fed(machine, d, duties[(d, u)])]
+    pumped_c = [c for c in contributions if (c.drive, c.duty) in pumped]
+    flows = tuple(Input(indexed("q", c.drive), f"{c.drive} at {c.duty}", c.flow, "flow") for c in pumped_c)
+    note = "" if len(pumped) == len(running) else (
+        "not counted: " + ", ".join(f"{d} at {u}" for d, u in running if (d, u) not in pumped)
+        + " (overrunning, its inlet filled through makeup valves from the return line)")
+    if not pumped:
+        demand = rec.put(Value("flow_demand", "Flow demand on the pump", "q_sum", 0.0, "flow", "q_sum = 0",
+                               "no running drive takes flow from the pump", (), "continuity of flow", note=note))
+        p_work = rec.put(Value("working_pressure", "Supply working pressure", "p_s", sup.return_pressure, "pressure",
+                               "p_s = p_return", "no drive takes pump flow: the line sits at the return pressure",
+                               (Input("p_return", "return pressure", sup.return_pressure, "pressure"),), SRC_PARALLEL))
+    elif sup.circuit == "series":
+        demand = rec.put(Value("flow_demand", "Series line flow", "q_line", max(c.flow for c in pumped_c), "flow",
                                "q_line = max(q_i)", "the largest demand of the drives in series; a drive needing less "
-                               "is bypassed at its valve for the difference", flows, SRC_SERIES))
-        p_work = _series_pressures(rec, sup, running, duties)
+                               "is bypassed at its valve for the difference", flows, SRC_SERIES, note=note))
+        p_work = _series_pressures(rec, machine, sup, running, duties)
     else:
-        demand = rec.put(Value("flow_demand", "Summed flow demand", "q_sum", sum(c.flow for c in contributions), "flow",
+        demand = rec.put(Value("flow_demand", "Summed flow demand", "q_sum", sum(c.flow for c in pumped_c), "flow",
                                "q_sum = sum(q_i)", "drives in parallel: their flows add", flows,
-                               "continuity of flow in a parallel circuit"))
+                               "continuity of flow in a parallel circuit", note=note))
         needs = [(d, u, duties[(d, u)].values.get("supply_pressure_required") or duties[(d, u)].values["inlet_pressure"])
-                 for d, u in running]
+                 for d, u in pumped]
         p_work = rec.put(Value("working_pressure", "Supply working pressure", "p_s", max(x[2].value for x in needs),
                                "pressure", "p_s = max(p_supply,i)",
                                "the highest pressure a running drive needs at the supply (inlet plus pressure-line loss)",
@@ -93,18 +110,25 @@ def resolve_supply_mode(machine: Machine, sup: Supply, mode, duties: dict, base:
     rec.put(Value("flow_surplus", "Surplus (+) or shortfall (-)", "dq", q_pump - demand, "flow",
                   "dq = q_p - q_sum", "pump delivery less the flow the drives take",
                   (Input("q_p", "pump delivery", q_pump, "flow"), Input("q_sum", "flow demand", demand, "flow")), ""))
-    _makeup(rec, running, duties, q_pump)
-    _pump_and_heat(rec, sup, running, duties, q_pump, demand, p_work, base)
+    _makeup(rec, machine, sup, running, pumped, duties, q_pump, demand)
+    _pump_and_heat(rec, sup, pumped, running, duties, q_pump, demand, p_work, base)
     return SupplyModeResult(sup.id, mode.id, contributions, rec.values, rec.per_drive, tuple(rec.order))
 
 
-def _series_pressures(rec: Record, sup: Supply, running, duties) -> float:
+def _pump_fed(machine: Machine, drive_id: str, duty) -> bool:
+    """Does this running duty point take its inlet flow from the pump: every driving one, and an
+    overrunning one lowered through a counterbalance valve (the pump holds its pilot open)."""
+    return duty.direction != "overrunning" or machine.drive(drive_id).pump_fed_overrun
+
+
+def _series_pressures(rec: Record, machine: Machine, sup: Supply, running, duties) -> float:
     p = sup.return_pressure
     terms = [Input("p_return", "return pressure", p, "pressure")]
     for d, u in reversed(running):
         r = duties[(d, u)].values
-        ret = r["return_line_loss"].value if "return_line_loss" in r else 0.0
-        press = r["pressure_line_loss"].value if "pressure_line_loss" in r else 0.0
+        # line losses and directional-valve drops between this motor and the next (or tank, or pump)
+        ret = sum(r[k].value for k in ("return_line_loss", "valve_drop_to_tank") if k in r)
+        press = sum(r[k].value for k in ("pressure_line_loss", "valve_drop_to_motor") if k in r)
         dp = 0.0 if duties[(d, u)].direction == "overrunning" else r["pressure_differential"].value
         outlet = p + ret
         inlet = outlet + dp
@@ -119,33 +143,57 @@ def _series_pressures(rec: Record, sup: Supply, running, duties) -> float:
         p = inlet + press
         terms += [Input(indexed("dp", d), f"{d} at {u}: differential", dp, "pressure"),
                   Input(indexed("dp_lines", d), f"{d}: line losses", ret + press, "pressure")]
+    series_start(rec, machine, sup, running, duties)
     return rec.put(Value("working_pressure", "Supply working pressure", "p_s", p, "pressure",
                          "p_s = p_return + sum(dp_i + dp_lines,i)",
                          "return pressure plus every differential and line loss in the series", tuple(terms),
                          SRC_SERIES))
 
 
-def _makeup(rec: Record, running, duties, q_pump: float) -> None:
-    """Flow left for each overrunning drive once the others have taken theirs."""
+def _makeup(rec: Record, machine: Machine, sup: Supply, running, pumped, duties, q_pump: float,
+            demand: float) -> None:
+    """Flow that can fill each overrunning drive's inlet. Pump-fed (lowering through a counterbalance
+    valve): the pump delivery less what the other running drives take. Through makeup valves: the
+    flow the other drives return to tank plus the pump's surplus that reaches tank, and the return
+    pressure that pushes it through the makeup valves."""
     for d, u in running:
         if duties[(d, u)].direction != "overrunning":
             continue
         others = [(od, ou) for od, ou in running if od != d]
-        taken = sum(duties[k]["flow_demand"] for k in others)
-        rec.put(Value("makeup_available", f"Flow left to fill {d}'s inlet", "q_makeup", q_pump - taken, "flow",
-                      "q_makeup = q_p - sum(q_other)", "pump delivery less what the other running drives take",
-                      (Input("q_p", "pump delivery", q_pump, "flow"),)
-                      + tuple(Input(indexed("q", od), f"{od} at {ou}", duties[(od, ou)]["flow_demand"], "flow")
-                              for od, ou in others), "continuity of flow"), drive=d)
+        if (d, u) in pumped:
+            taken = sum(duties[k]["flow_demand"] for k in others if k in pumped)
+            rec.put(Value("makeup_available", f"Flow left to fill {d}'s inlet", "q_makeup", q_pump - taken, "flow",
+                          "q_makeup = q_p - sum(q_other)", "pump delivery less what the other running drives take",
+                          (Input("q_p", "pump delivery", q_pump, "flow"),)
+                          + tuple(Input(indexed("q", od), f"{od} at {ou}", duties[(od, ou)]["flow_demand"], "flow")
+                                  for od, ou in others if (od, ou) in pumped), "continuity of flow"), drive=d)
+            continue
+        returning = [(od, ou) for od, ou in others if (od, ou) in pumped]
+        back = sum(duties[k]["flow_demand"] for k in returning)
+        # a compensated pump strokes back: its unused delivery never flows
+        surplus = 0.0 if sup.compensated else max(q_pump - demand, 0.0)
+        rec.put(Value("makeup_available", f"Flow returning to tank that can fill {d}'s inlet", "q_makeup",
+                      back + surplus, "flow", "q_makeup = sum(q_return,other) + q_surplus",
+                      "the other drives' return flow and the pump's surplus, drawn through the makeup valves",
+                      tuple(Input(indexed("q", od), f"{od} at {ou} returning", duties[(od, ou)]["flow_demand"], "flow")
+                            for od, ou in returning)
+                      + (Input("q_surplus", "pump surplus to tank" + (" (compensated pump: none)" if sup.compensated
+                                                                      else ""), surplus, "flow"),),
+                      "continuity of flow"), drive=d)
+        rec.put(Value("makeup_pressure", "Return pressure at the makeup valves", "p_makeup", sup.return_pressure,
+                      "pressure", "p_makeup = p_return", "the return-line pressure that pushes oil through the makeup "
+                      "(anti-cavitation) valves into the inlet",
+                      (Input("p_return", "return pressure", sup.return_pressure, "pressure"),), "continuity of flow"),
+                 drive=d)
 
 
-def _pump_and_heat(rec: Record, sup: Supply, running, duties, q_pump, demand, p_work, base) -> None:
+def _pump_and_heat(rec: Record, sup: Supply, pumped, running, duties, q_pump, demand, p_work, base) -> None:
     p = sup.pump
     eta_t = p.overall_efficiency
     q_in, ps_in = Input("q_p", "pump delivery", q_pump, "flow"), Input("p_s", "working pressure", p_work, "pressure")
     taken = min(demand, q_pump)  # in a shortfall the drives share what there is and slow down
     share = taken / demand if demand > 0 else 1.0
-    driving = [duties[k] for k in running if duties[k].direction != "overrunning"]
+    driving = [duties[k] for k in pumped if duties[k].direction != "overrunning"]
     braking = [duties[k] for k in running if duties[k].direction == "overrunning"]
     if sup.compensated:
         p_pump = rec.put(given("pump_pressure", "Pump outlet pressure (compensator setting)", "p_pump",

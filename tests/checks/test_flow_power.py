@@ -10,6 +10,13 @@ import pytest
 
 from helpers import minimal, spec_check, spec_checks
 
+
+def spec_results(data: dict):
+    from specgen.intake.read import Source
+    from specgen.pipeline import evaluate
+
+    return evaluate(Source("mem.yaml", data, b"")).results
+
 L_MIN = 1e-3 / 60  # m^3/s
 
 
@@ -91,22 +98,69 @@ def lowering(rpm: float, load_holding: str) -> dict:
 
 
 @pytest.mark.parametrize("rpm, holding, need, status", [
-    # left for the lowering motor: 57 - 20*1000/0.9/1000 = 57 - 22.222 = 34.778 L/min (continuity);
-    # it needs q = 100 * n / 0.95; margin = (34.778 - q)/q (hand calculation)
-    (300, "none", 31.5789, "pass"),              # 10.13 %
-    (314.3, "none", 33.0842, "pass"),            # 1.6936/33.0842 = 5.12 %
-    (315, "none", 33.1579, "warn"),              # 1.6199/33.1579 = 4.89 %
-    (330, "none", 34.7368, "warn"),              # 0.12 %
-    (331, "none", 34.8421, "fail"),              # -0.18 %: cavitates, the load can run away
-    (331, "counterbalance_valve", 34.8421, "warn"),  # same shortfall, the valve throttles the load down
-    (331, "brake_valve", 34.8421, "warn"),
-    (331, "spring_applied_brake", 34.8421, "fail"),  # a brake does not meter the lowering
+    # Lowered through a counterbalance valve the pump fills the inlet: left for the lowering motor
+    # 57 - 20*1000/0.9/1000 = 57 - 22.222 = 34.778 L/min (continuity); it needs q = 100 * n / 0.95;
+    # margin = (34.778 - q)/q (hand calculation). A counterbalance valve caps the verdict at warn:
+    # short of flow it throttles the load down.
+    (300, "counterbalance_valve", 31.5789, "pass"),              # 10.13 %
+    (314.3, "counterbalance_valve", 33.0842, "pass"),            # 1.6936/33.0842 = 5.12 %
+    (315, "counterbalance_valve_and_brake", 33.1579, "warn"),    # 1.6199/33.1579 = 4.89 %
+    (331, "counterbalance_valve", 34.8421, "warn"),              # -0.18 %, capped at warn
 ])
-def test_makeup_flow_boundaries(rpm, holding, need, status):
+def test_makeup_flow_boundaries_pump_fed(rpm, holding, need, status):
     c = spec_check(lowering(rpm, holding), "makeup_flow", drive="hoist", supply="main", mode="work")
     assert c.status == status
     assert c.value / L_MIN == pytest.approx(34.7778, abs=1e-4)
     assert c.limit / L_MIN == pytest.approx(need, abs=1e-4)
+
+
+@pytest.mark.parametrize("rpm, holding, need, status", [
+    # Without a counterbalance valve the inlet fills through makeup valves from the return line
+    # (the pump is not charged for it; changed deliberately from the pump-fed reading): what reaches
+    # tank is the fan's return 22.222 L/min plus the fixed pump's surplus 57 - 22.222 = 34.778 L/min,
+    # 57.000 L/min in all (continuity, hand calculation); need q = 100 * n / 0.95 L/min.
+    (500, "none", 52.6316, "pass"),               # (57 - 52.6316)/52.6316 = 8.30 %
+    (530, "brake_valve", 55.7895, "warn"),        # 2.17 %: capped at warn, the brake valve meters
+    (530, "none", 55.7895, "warn"),               # 2.17 % < 5 %
+    (545, "none", 57.3684, "fail"),               # -0.64 %: cavitates, the load can run away
+    (545, "spring_applied_brake", 57.3684, "fail"),  # a brake does not meter the lowering
+])
+def test_makeup_flow_boundaries_through_makeup_valves(rpm, holding, need, status):
+    found = [c for c in spec_checks(lowering(rpm, holding), "makeup_flow", drive="hoist", supply="main",
+                                    mode="work") if c.kind == "flow"]
+    assert len(found) == 1
+    c = found[0]
+    assert c.status == status
+    assert c.value / L_MIN == pytest.approx(57.0, abs=1e-4)
+    assert c.limit / L_MIN == pytest.approx(need, abs=1e-4)
+
+
+@pytest.mark.parametrize("p_return, status", [
+    ("1.2 bar", "pass"),   # (1.2 - 1)/1 = 20 %
+    ("1 bar", "warn"),     # at the 1 bar of common practice (no source): the makeup valves may not fill the inlet
+    ("0.3 bar", "warn"),   # a warning at worst: the flow check judges the cavitation itself
+])
+def test_makeup_return_pressure(p_return, status):
+    d = lowering(300, "none")
+    d["supplies"]["main"]["return_pressure"] = p_return
+    found = [c for c in spec_checks(d, "makeup_flow", drive="hoist", mode="work") if c.kind == "pressure"]
+    assert [c.status for c in found] == [status]
+
+
+def test_braking_drive_draws_no_pump_power():
+    # a slew stop braked by crossover reliefs, alone in its mode, on a compensated pump: the pump
+    # delivers nothing for it (before: charged its flow at the compensator setting)
+    d = minimal()
+    d["supplies"]["main"]["pump"].update({"control": "pressure_compensated", "compensator_setting": "240 bar"})
+    d["drives"]["hoist"]["duty_points"]["lift"].update({"direction": "overrunning"})
+    d["drives"]["hoist"]["port_relief"] = "200 bar"
+    r = spec_results(d)
+    sm = r.supply_mode("main", "work")
+    assert sm["flow_demand"] == 0.0
+    assert sm["pump_input_power"] == pytest.approx(0.0, abs=1e-9)
+    # before, its 52.63 L/min were charged at 240 bar: 52.63/60e3 * 240e5 / 0.85 = 24.77 kW > 5 kW, a false fail
+    d["supplies"]["main"]["prime_mover_power"] = "5 kW"
+    assert spec_check(d, "prime_mover_power", supply="main", mode="work").status == "pass"
 
 
 def test_makeup_flow_only_for_overrunning_drives():

@@ -62,7 +62,8 @@ def test_series_values_of_each_drive_sit_under_its_id(tmp_path):
     for s in series:
         assert set(s["per_drive"]) <= {c["drive"] for c in s["contributions"]}
         for values in s["per_drive"].values():
-            assert set(values) == {"outlet_pressure", "inlet_pressure"}
+            assert {"outlet_pressure", "inlet_pressure", "relief_torque"} <= set(values) <= {
+                "outlet_pressure", "inlet_pressure", "relief_torque", "start_outlet_pressure", "breakaway_torque"}
         assert not any("[" in k for k in s["values"])
 
 

@@ -40,12 +40,14 @@ def drive_charts(o: Outcome, drive, duties, system: str, fig_n, draw: Batch) -> 
     unit = {k: convert(0.0, k, system)[1] for k in ("pressure", "torque", "flow", "speed")}
     driving = [r for r in duties if r.direction != "overrunning"] or duties
     p_out = max(r["back_pressure"] for r in driving)  # the highest back pressure leaves the least differential
+    dr = o.results.drive_result(drive.id)
+    p_limit = dr["pressure_limit"] if dr is not None and "pressure_limit" in dr.values else sup.relief_setting
     t_lines: dict[float, charts.Line] = {}
     n_lines: dict[float, charts.Line] = {}
     for r in duties:
         vg = _displacement(r)
         label = f"Vg {show(vg, 'displacement', system)}" if vg else "working displacement"
-        dp_relief = sup.relief_setting - r["back_pressure"]
+        dp_relief = p_limit - r["back_pressure"]  # the torque at the limit is the slope times this
         if dp_relief > 0:
             t_lines.setdefault(round(vg or 0.0, 12), charts.Line(label, plain(r["relief_torque"], "torque", system)
                                                                  / plain(dp_relief, "pressure", system)))
@@ -62,6 +64,9 @@ def drive_charts(o: Outcome, drive, duties, system: str, fig_n, draw: Batch) -> 
     if sup.compensated and sup.pump.compensator_setting is not None:
         limits.append(charts.Limit("compensator setting", show(sup.pump.compensator_setting, "pressure", system),
                                    at_dp(sup.pump.compensator_setting), "compensator"))
+    if drive.port_relief is not None:
+        limits.append(charts.Limit("port relief", show(drive.port_relief, "pressure", system),
+                                   at_dp(drive.port_relief), "relief"))
     for key, name, style in (("continuous_pressure", "continuous rating", "continuous"),
                              ("peak_pressure", "peak rating", "peak")):
         value = getattr(rating, key)
