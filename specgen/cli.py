@@ -15,7 +15,6 @@ from pathlib import Path
 
 from specgen import __version__, exits
 from specgen.errors import Location, Problem, SpecError
-from specgen.heap import few_full_collections
 from specgen.safe_text import clip, escape
 
 
@@ -144,7 +143,6 @@ def _evaluate_all(paths: list[str], allow_outside_files: bool = False):
     return outcomes, problems
 
 
-@few_full_collections()  # check renders only text or JSON: no cyclic garbage (specgen/heap.py)
 def cmd_check(args) -> int:
     paths = spec_paths(args.specs)
     outcomes, problems = _evaluate_all(paths, args.allow_outside_files)

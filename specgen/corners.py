@@ -26,7 +26,7 @@ from __future__ import annotations
 from dataclasses import replace
 from typing import Callable
 
-from specgen.checks.status import RANK, Check
+from specgen.results import RANK, Check
 from specgen.intake.build_corners import Corner, Target
 from specgen.intake.model import Machine, Ratio
 from specgen.results import CornerResult, Results

@@ -23,7 +23,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-from specgen.checks.status import RANK
+from specgen.results import RANK
 from specgen.pipeline import Outcome
 from specgen.intake.content import common_kind, si_value
 from specgen.intake.schema import Field, fields
@@ -176,10 +176,6 @@ class Diff:
     def regressions(self, at: str = "warn") -> tuple[CheckChange, ...]:
         """Checks that got worse and now stand at ``at`` or beyond ("warn" counts fail too)."""
         return tuple(c for c in self.checks if c.regression and RANK[c.regression] >= RANK[at])
-
-    def exit_status(self, fail_on: str = "fail") -> int:
-        """0 no regression at ``fail_on`` severity or beyond, 1 otherwise."""
-        return 1 if self.regressions(fail_on) else 0
 
 
 def _close(a: float, b: float, tolerance: float) -> bool:

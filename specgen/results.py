@@ -10,12 +10,54 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from functools import cached_property
 
-from specgen.checks.status import SEVERITY, Check, most_severe
 from specgen.trace import Input, Value
 
 __all__ = ["Check", "Contribution", "CornerResult", "CycleResult", "DriveResult", "DutyResult", "FluidResult",
            "ModeResult", "Results",
            "SupplyModeResult", "SupplyResult"]
+
+
+SEVERITY = ("pass", "warn", "fail")  # least to most severe
+RANK = {s: n for n, s in enumerate(SEVERITY)}
+
+
+def most_severe(statuses) -> str:
+    """The most severe of ``statuses`` ("pass" when there are none)."""
+    return max(statuses, key=RANK.__getitem__, default="pass")
+
+
+@dataclass(frozen=True)
+class Check:
+    """One verdict. ``value`` and ``limit`` are SI floats of ``kind`` (None where not numeric);
+    ``margin`` is the signed fraction the module docstring defines for the check's id."""
+
+    id: str
+    title: str
+    status: str  # "pass", "warn" or "fail"
+    value: float | None
+    limit: float | None
+    kind: str
+    message: str
+    drive: str | None = None
+    duty: str | None = None
+    supply: str | None = None
+    mode: str | None = None
+    margin: float | None = None
+    corner: str | None = None  # the operating corner this verdict was found at; None: the nominal point
+    cycle: str | None = None  # a duty cycle's id, for the checks judged over a cycle
+
+    @property
+    def where(self) -> str:
+        parts = [f"{k} {v}" for k, v in (("drive", self.drive), ("duty point", self.duty),
+                                          ("supply", self.supply), ("mode", self.mode),
+                                          ("duty cycle", self.cycle)) if v]
+        return ", ".join(parts)
+
+    @property
+    def name(self) -> str:
+        """The check id, where it applies and the corner it was found at, as one line."""
+        return (f"{self.id} ({self.where})" if self.where else self.id) + (
+            f" [at corner {self.corner}]" if self.corner else "")
 
 
 class _ValuesByKey:

@@ -9,6 +9,7 @@ import pytest
 
 from revisions import commit, example_revision, git, make_repo
 from helpers import EXAMPLE, ROOT, minimal, run_cli
+from specgen import exits
 from specgen.diff import compare, diff_inputs
 from specgen.intake.read import load_text
 from specgen.pipeline import evaluate
@@ -103,7 +104,7 @@ def test_renamed_drive_is_added_and_removed_never_paired():
     assert all(v.owner.first not in ("winch", "hoist") for v in d.values)  # nothing compared across them
     text = diff_out.render(d, "text")
     assert "drive 'winch' (drives.winch)" in text and "drive 'hoist' (drives.hoist)" in text
-    assert d.exit_status("warn") == 0  # the renamed drive passes as before
+    assert exits.diff_status(d, "warn") == 0  # the renamed drive passes as before
 
 
 # --- results and checks between two git revisions -------------------------------------------------

@@ -1,4 +1,5 @@
-"""The verdict record, the one status rule every check uses, and the one order of severity.
+"""The one status rule every check uses, and the margin of each check (the Check record and the order of
+severity live in results.py, beside the results every output reads).
 
 Margin: how far a compared quantity is from its limit, as a fraction of a stated reference, signed
 so that a negative margin means the limit is crossed.
@@ -57,17 +58,9 @@ Motor at 3300 rpm against a 3000 rpm maximum: (3000 - 3300)/3000 = -0.10, fail.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
 from typing import Callable
 
-SEVERITY = ("pass", "warn", "fail")  # least to most severe
-RANK = {s: n for n, s in enumerate(SEVERITY)}
-
-
-def most_severe(statuses) -> str:
-    """The most severe of ``statuses`` ("pass" when there are none)."""
-    return max(statuses, key=RANK.__getitem__, default="pass")
-
+from specgen.results import RANK, Check
 
 def status(margin: float | None, band: float = 0.0, worst: str = "fail") -> str:
     """"fail" at or past the limit, "warn" inside the warning band, else "pass"; never beyond ``worst``.
@@ -91,40 +84,6 @@ def below(value: float, limit: float) -> float:
 def reaches(value: float, need: float) -> float:
     """Margin of a value that must reach ``need``, as a fraction of the need (infinite for a zero need)."""
     return (value - need) / need if need > 0 else float("inf")
-
-
-@dataclass(frozen=True)
-class Check:
-    """One verdict. ``value`` and ``limit`` are SI floats of ``kind`` (None where not numeric);
-    ``margin`` is the signed fraction the module docstring defines for the check's id."""
-
-    id: str
-    title: str
-    status: str  # "pass", "warn" or "fail"
-    value: float | None
-    limit: float | None
-    kind: str
-    message: str
-    drive: str | None = None
-    duty: str | None = None
-    supply: str | None = None
-    mode: str | None = None
-    margin: float | None = None
-    corner: str | None = None  # the operating corner this verdict was found at; None: the nominal point
-    cycle: str | None = None  # a duty cycle's id, for the checks judged over a cycle
-
-    @property
-    def where(self) -> str:
-        parts = [f"{k} {v}" for k, v in (("drive", self.drive), ("duty point", self.duty),
-                                          ("supply", self.supply), ("mode", self.mode),
-                                          ("duty cycle", self.cycle)) if v]
-        return ", ".join(parts)
-
-    @property
-    def name(self) -> str:
-        """The check id, where it applies and the corner it was found at, as one line."""
-        return (f"{self.id} ({self.where})" if self.where else self.id) + (
-            f" [at corner {self.corner}]" if self.corner else "")
 
 
 Fmt = Callable[[float, str], str]  # (SI value, units kind) -> text in the machine's display units

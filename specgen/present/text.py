@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 from specgen.cautions import SHORT
-from specgen.checks.status import RANK
+from specgen.results import RANK
 from specgen.pipeline import Outcome
 from specgen.present.json_out import assumed_list
 from specgen.present.values import format_si

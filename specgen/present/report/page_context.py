@@ -10,7 +10,7 @@ here recomputes a relation.
 from __future__ import annotations
 
 from specgen import __version__
-from specgen.checks.status import RANK
+from specgen.results import RANK
 from specgen.cautions import CAUTIONS
 from specgen.fingerprint import Fingerprint
 from specgen.pipeline import Outcome
