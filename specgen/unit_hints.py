@@ -49,7 +49,7 @@ def dimension_words(dimensionality) -> str:
 
 
 def _reads_as(unit: str, kind_name: str) -> bool:
-    from specgen.units import KINDS, _PINT_SPELLING, registry
+    from specgen.unit_kinds import KINDS, _PINT_SPELLING, registry
 
     kind = KINDS[kind_name]
     if not kind.dimensionality:
@@ -64,7 +64,7 @@ def _reads_as(unit: str, kind_name: str) -> bool:
 
 
 def _own_spellings() -> list[str]:
-    from specgen.units import DISPLAY, KINDS
+    from specgen.unit_kinds import DISPLAY, KINDS
 
     out = [u for system in DISPLAY.values() for u in system.values() if u]
     out += [k.example.split(" ", 1)[1] for k in KINDS.values() if " " in k.example]
@@ -76,7 +76,7 @@ def _own_spellings() -> list[str]:
 
 @lru_cache(maxsize=1)
 def _pint_spellings() -> tuple[str, ...]:
-    from specgen.units import registry
+    from specgen.unit_kinds import registry
 
     names = set()
     for name, definition in registry()._units.items():
