@@ -2,7 +2,8 @@
 
 pint lives here and in unit_kinds.py (the kinds and the one registry) and nowhere else. The
 computation core sees plain floats in these SI units: pressure Pa, displacement m^3/rev, flow
-m^3/s, rotational speed rev/s, torque N*m, power W, temperature K, and the base SI unit for every other kind below.
+m^3/s, rotational speed rev/s, torque N*m, power W, temperature K, and the base SI unit for every
+other kind below.
 
 What a quantity may be written as (checked by ``parse`` before pint sees the text, so no unit
 text is ever evaluated as arithmetic)::
