@@ -195,3 +195,32 @@ def test_text_and_json_name_the_corner_and_a_spec_without_corners_writes_no_corn
     plain = write_spec(tmp_path, _spec(), "plain.yaml")
     doc = json.loads(run_cli("check", "--format", "json", plain)[1])
     assert "corners" not in doc and all("corner" not in c for c in doc["checks"])
+
+
+def test_cold_corner_starves_the_pump_through_a_narrow_suction_line():
+    d = minimal()
+    d["fluid"] = {"iso_vg": 46, "temperature": "40 degC", "density": "870 kg/m^3", "viscosity_100c": "6.8 mm^2/s"}
+    d["supplies"]["main"]["suction_line"] = {"inner_diameter": "40 mm", "length": "1 m"}
+    nominal = _check(_outcome(d).results, "pump_inlet_pressure")
+    d["corners"] = {"cold": {"set": {"fluid.temperature": "-20 degC"}}}
+    c = _check(_outcome(d).results, "pump_inlet_pressure")
+    # Hand calculation. The pump draws its geometric flow q = 40 cm^3 * 1500 rpm = 1.0e-3 m^3/s through
+    # 40 mm: v = 1e-3 / (pi * 0.02^2) = 0.7958 m/s.
+    # Viscosity: ASTM D341 (Walther) through 46 mm^2/s at 40 degC and 6.8 mm^2/s at 100 degC gives
+    #   4517.8 mm^2/s at -20 degC (worked in test_cold_corner_raises_viscosity_and_line_loss_by_hand).
+    # Line loss, laminar (Darcy-Weisbach with f = 64/Re, i.e. Hagen-Poiseuille; fluid-power textbook):
+    #   dp = 128 * rho * nu * L * q / (pi * d^4), pi * 0.04^4 = 8.0425e-6 m^4
+    #   40 degC: Re = 0.7958 * 0.04 / 46e-6 = 692 (laminar); dp = 128 * 870 * 46e-6 * 1 * 1e-3 / 8.0425e-6
+    #            = 636.9 Pa
+    #   -20 degC: Re = 7.0 (laminar); dp = 636.9 * 4517.8 / 46 = 62 556 Pa
+    # Inlet (standard atmosphere 101 325 Pa, ISO 2533; no head, no strainer):
+    #   40 degC: 101 325 - 636.9 = 100 688 Pa, margin (100 688 - 80 000) / 80 000 = +0.2586: pass
+    #   -20 degC: 101 325 - 62 556 = 38 769 Pa, margin (38 769 - 80 000) / 80 000 = -0.5154: fail
+    # (0.8 bar abs: the assumed minimum inlet pressure, catalogue practice, from memory)
+    assert nominal.status == "pass" and nominal.corner is None
+    assert nominal.value == pytest.approx(100688.06, abs=0.5)
+    assert nominal.margin == pytest.approx(0.25860, abs=1e-4)
+    assert (c.status, c.corner) == ("fail", "cold")
+    assert c.value == pytest.approx(38768.8, abs=5.0)
+    assert c.limit == pytest.approx(80000.0)
+    assert c.margin == pytest.approx(-0.51539, abs=1e-4)

@@ -9,6 +9,7 @@ from __future__ import annotations
 
 from specgen.calc import efficiency_table as table
 from specgen.intake.model import Drive, DutyPoint, Ratio, Supply
+from specgen.resolve.limits import governing_setting, pressure_limit
 from specgen.resolve.record import Record
 from specgen.trace import Input, Value
 
@@ -24,8 +25,10 @@ def duty_efficiencies(rec: Record, drive: Drive, duty: DutyPoint, sup: Supply, t
     """(eta_v, eta_hm, eta_start) for this duty point; from the table where it covers the point.
 
     The pressure differential and the hydro-mechanical efficiency are solved together by fixed-point
-    iteration; the starting efficiency is read at the relief setting less the back pressure (the
-    breakaway torque's differential), before any return-line loss.
+    iteration; the starting efficiency is read at the drive's pressure limit (resolve/limits.py: the
+    lowest of relief, compensator and port relief settings) less the back pressure, the breakaway
+    torque's differential, before any return-line loss (no flow at standstill).
+    Example: relief 250 bar, compensator 210 bar, return 5 bar: the starting row is read at 205 bar.
     """
     m = drive.motor
     consts = (m.volumetric_efficiency, m.hydromechanical_efficiency, m.starting_efficiency)
@@ -58,17 +61,19 @@ def duty_efficiencies(rec: Record, drive: Drive, duty: DutyPoint, sup: Supply, t
                       inputs, SRC_TABLE, note=f"outside the maker's table at {_at(p.dp, speed)}"))
     eta_st = consts[2]
     if t.starting is not None:
-        dp_start = sup.relief_setting - back_pressure
+        limit = pressure_limit(drive, sup)
+        dp_start = limit.value - back_pressure
         value = table.starting(t.pressures, t.starting, dp_start)
-        start_in = (Input("dp_relief", "relief setting less back pressure", dp_start, "pressure"),)
+        start_in = (Input("dp_limit", f"pressure limit ({governing_setting(limit)}) less back pressure", dp_start,
+                          "pressure"),)
         if value is None:
             rec.put(Value("table_starting_outside_at", "Breakaway differential outside the table's starting row",
-                          "dp_relief", dp_start, "pressure", "", "the starting efficiency at this differential is not "
+                          "dp_limit", dp_start, "pressure", "", "the starting efficiency at this differential is not "
                           "in the table: the constant starting efficiency is used", start_in, SRC_TABLE,
                           note=f"outside the maker's starting row at {dp_start / 1e5:.4g} bar"))
         else:
             eta_st = Ratio(rec.put(Value("table_starting_efficiency", "Starting efficiency from the table",
-                                         "eta_start", value, "ratio", "eta_start = table_start(dp_relief)",
+                                         "eta_start", value, "ratio", "eta_start = table_start(dp_limit)",
                                          "the table's zero-speed row, linear between its pressures", start_in,
                                          SRC_TABLE, note=f"from table at {dp_start / 1e5:.4g} bar, 0 rpm")))
     return eta_v, eta_hm, eta_st

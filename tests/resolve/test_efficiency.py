@@ -1,7 +1,7 @@
 """A table-driven motor against its constant-efficiency twin (helpers.minimal()).
 
 Bilinear interpolation (numerical-methods textbook); motor relations dp = 2*pi*T/(Vg*eta_hm),
-T_start = Vg*(p_relief - p_out)*eta_start/(2*pi) (fluid-power textbook). Hand calculations beside each check.
+T_start = Vg*(p_limit - p_out)*eta_start/(2*pi) (fluid-power textbook). Hand calculations beside each check.
 """
 
 import subprocess
@@ -54,6 +54,21 @@ def test_breakaway_differs_from_the_constant_twin_and_the_trace_says_why():
     start_input = next(i for i in table.values["breakaway_torque"].inputs if i.symbol == "eta_start")
     assert start_input.value == pytest.approx(0.809) and not start_input.assumed
     assert table.values["table_starting_efficiency"].note == "from table at 245 bar, 0 rpm"
+
+
+def test_the_starting_row_is_read_at_the_compensator_not_the_relief():
+    d = with_table()
+    d["supplies"]["main"]["pump"].update({"control": "pressure_compensated", "compensator_setting": "210 bar"})
+    r = duty(d)
+    # pressure limit min(250 bar relief, 210 bar compensator) = 210 bar, less 5 bar return: 205 bar.
+    # starting row at 205 bar: 0.80 + 0.05 * (0.82 - 0.80) = 0.801 (read at the 250 bar relief it
+    # would be 245 bar: 0.809, the wrong row position)
+    assert r["table_starting_efficiency"] == pytest.approx(0.801)
+    assert r.values["table_starting_efficiency"].note == "from table at 205 bar, 0 rpm"
+    assert "compensator setting" in r.values["table_starting_efficiency"].inputs[0].label
+    # breakaway 1e-4 m^3 * 205e5 Pa * 0.801 / (2*pi) = 1642.05 / 6.28319 = 261.34 N*m
+    # (with the relief's 0.809 it would read 263.95 N*m) -- hand calculation
+    assert r["breakaway_torque"] == pytest.approx(261.34, abs=0.01)
 
 
 def test_a_badly_shaped_table_is_refused(tmp_path):
