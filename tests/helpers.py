@@ -83,3 +83,26 @@ def spec_check(data: dict, check_id: str, **where):
 # A value exactly at its limit fails under the status rule every check shares ("fail" at or past
 # the limit). Tests of checks that still pass or warn there carry this strict mark: they report
 # the gap now and turn red as soon as the check fails at its limit, when the mark goes.
+
+
+# A motor efficiency table (invented figures, plausible for an axial piston motor) on the minimal rig.
+EFFICIENCY_TABLE = {"pressure_differential": ["100 bar", "200 bar", "300 bar"], "speed": ["100 rpm", "1000 rpm"],
+                    "volumetric": [[0.94, 0.96], [0.92, 0.95], [0.90, 0.94]],
+                    "hydromechanical": [[0.86, 0.88], [0.89, 0.91], [0.90, 0.92]],
+                    "starting": [0.78, 0.80, 0.82]}
+
+
+def with_efficiency_table(table=EFFICIENCY_TABLE, **duty) -> dict:
+    """The minimal rig whose motor reads its efficiencies from ``table``; ``duty`` edits its duty point."""
+    d = minimal()
+    d["drives"]["hoist"]["motor"]["efficiency_table"] = table
+    d["drives"]["hoist"]["duty_points"]["lift"].update(duty)
+    return d
+
+
+def hoist_lift(d):
+    """The minimal rig's one duty result."""
+    from specgen.intake.read import Source
+    from specgen.pipeline import evaluate
+
+    return evaluate(Source("mem.yaml", d, b"")).results.duty("hoist", "lift")

@@ -9,29 +9,12 @@ import sys
 
 import pytest
 
-from helpers import ROOT, minimal
-from specgen.intake.read import Source
-from specgen.pipeline import evaluate
+from helpers import EFFICIENCY_TABLE, ROOT, hoist_lift, minimal, with_efficiency_table
 
-TABLE = {"pressure_differential": ["100 bar", "200 bar", "300 bar"], "speed": ["100 rpm", "1000 rpm"],
-         "volumetric": [[0.94, 0.96], [0.92, 0.95], [0.90, 0.94]],
-         "hydromechanical": [[0.86, 0.88], [0.89, 0.91], [0.90, 0.92]],
-         "starting": [0.78, 0.80, 0.82]}
-
-
-def with_table(table=TABLE, **duty) -> dict:
-    d = minimal()
-    d["drives"]["hoist"]["motor"]["efficiency_table"] = table
-    d["drives"]["hoist"]["duty_points"]["lift"].update(duty)
-    return d
-
-
-def duty(d):
-    return evaluate(Source("mem.yaml", d, b"")).results.duty("hoist", "lift")
 
 
 def test_table_efficiencies_at_the_duty_point():
-    r = duty(with_table())
+    r = hoist_lift(with_efficiency_table())
     # 500 rpm is (500 - 100) / 900 = 0.4444 across; the 200 bar row: 0.89 + 0.4444 * 0.02 = 0.89889, the
     # 300 bar row 0.90889; dp = 2*pi*286.5 / (1e-4 * eta_hm) = 200.26 bar, 0.26 % of the way up:
     # eta_hm = 0.89889 + 0.0026 * 0.01 = 0.89891 (hand calculation)
@@ -44,8 +27,8 @@ def test_table_efficiencies_at_the_duty_point():
 
 
 def test_breakaway_differs_from_the_constant_twin_and_the_trace_says_why():
-    twin = duty(minimal())
-    table = duty(with_table())
+    twin = hoist_lift(minimal())
+    table = hoist_lift(with_efficiency_table())
     # twin: 1e-4 * (250 - 5) bar * 0.85 / (2*pi) = 1e-4 * 245e5 * 0.85 / 6.2832 = 331.44 N*m
     assert twin["breakaway_torque"] == pytest.approx(331.44, abs=0.01)
     # table: starting row at 245 bar: 0.80 + 0.45 * 0.02 = 0.809 -> 1e-4 * 245e5 * 0.809 / 6.2832 = 315.45 N*m
@@ -57,9 +40,9 @@ def test_breakaway_differs_from_the_constant_twin_and_the_trace_says_why():
 
 
 def test_the_starting_row_is_read_at_the_compensator_not_the_relief():
-    d = with_table()
+    d = with_efficiency_table()
     d["supplies"]["main"]["pump"].update({"control": "pressure_compensated", "compensator_setting": "210 bar"})
-    r = duty(d)
+    r = hoist_lift(d)
     # pressure limit min(250 bar relief, 210 bar compensator) = 210 bar, less 5 bar return: 205 bar.
     # starting row at 205 bar: 0.80 + 0.05 * (0.82 - 0.80) = 0.801 (read at the 250 bar relief it
     # would be 245 bar: 0.809, the wrong row position)
@@ -74,11 +57,11 @@ def test_the_starting_row_is_read_at_the_compensator_not_the_relief():
 def test_a_badly_shaped_table_is_refused(tmp_path):
     from helpers import run_cli, write_spec
 
-    t = dict(TABLE, hydromechanical=[[0.86, 0.88], [0.89, 0.91]])
-    code, _, err = run_cli("check", write_spec(tmp_path, with_table(t)))
+    t = dict(EFFICIENCY_TABLE, hydromechanical=[[0.86, 0.88], [0.89, 0.91]])
+    code, _, err = run_cli("check", write_spec(tmp_path, with_efficiency_table(t)))
     assert code == 2 and "efficiency_table.hydromechanical" in err and "3 rows" in err
-    t = dict(TABLE, speed=["1000 rpm", "100 rpm"])
-    code, _, err = run_cli("check", write_spec(tmp_path, with_table(t)))
+    t = dict(EFFICIENCY_TABLE, speed=["1000 rpm", "100 rpm"])
+    code, _, err = run_cli("check", write_spec(tmp_path, with_efficiency_table(t)))
     assert code == 2 and "must rise" in err
 
 
@@ -97,12 +80,12 @@ def test_a_table_named_from_the_parts_file_gives_the_same_results_as_inline(tmp_
     from helpers import run_cli, write_spec
     from specgen.pipeline import run_file
 
-    parts = {"format": 1, "motors": {"axial_piston": ["100 cm^3"]}, "efficiency_tables": {"ap100": TABLE}}
+    parts = {"format": 1, "motors": {"axial_piston": ["100 cm^3"]}, "efficiency_tables": {"ap100": EFFICIENCY_TABLE}}
     (tmp_path / "stock.parts.yaml").write_text(yaml.safe_dump(parts, sort_keys=False), encoding="utf-8")
-    d = with_table("ap100")
+    d = with_efficiency_table("ap100")
     d["sizing"] = {"parts_file": "stock.parts.yaml"}
     named = run_file(write_spec(tmp_path, d)).results.duty("hoist", "lift")
-    inline = duty(with_table())
+    inline = hoist_lift(with_efficiency_table())
     assert named["pressure_differential"] == inline["pressure_differential"]
     assert named["breakaway_torque"] == inline["breakaway_torque"]
     d["drives"]["hoist"]["motor"]["efficiency_table"] = "ap999"
