@@ -130,6 +130,18 @@ def _displacement(rec: Record, drive: Drive, duty: DutyPoint, setup: DriveSetup,
     return s.displacement
 
 
+# The losses between a motor and its supply (pressure side) or tank (tank side): (loss key, symbol, label).
+_PRESSURE_SIDE = (("pressure", "dp_pressure_line", "pressure-line loss"),
+                  ("valve_drop_to_motor", "dp_valve,P", "directional valve drop to motor"))
+_TANK_SIDE = (("return", "dp_return_line", "return-line loss"),
+              ("valve_drop_to_tank", "dp_valve,T", "directional valve drop to tank"))
+
+
+def _with_losses(base: Input, losses: dict, side) -> tuple[Input, ...]:
+    """``base`` followed by each loss of ``side`` found in ``losses``, as trace inputs (pressures add)."""
+    return (base,) + tuple(Input(symbol, label, losses[key], "pressure") for key, symbol, label in side if key in losses)
+
+
 def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup: DriveSetup,
                  fluid: FluidResult) -> DutyResult:
     """Hydraulics of one duty point, after its mechanics and the drive's displacement are known."""
@@ -174,18 +186,11 @@ def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup
                 "of the flow", (Input("dp_rated", "drop at rated flow", drop, "pressure"),
                                 Input("q_rated", "rated flow", valve.rated_flow, "flow"),
                                 Input("q", "flow demand", q, "flow")), SRC_ORIFICE))
-    if "return" in losses or "valve_drop_to_tank" in losses:
-        ins = [Input("p_return", "return pressure", p_out0, "pressure")]
-        terms = ["p_return"]
-        if "return" in losses:
-            ins.append(Input("dp_return_line", "return-line loss", losses["return"], "pressure"))
-            terms.append("dp_return_line")
-        if "valve_drop_to_tank" in losses:
-            ins.append(Input("dp_valve,T", "directional valve drop to tank", losses["valve_drop_to_tank"], "pressure"))
-            terms.append("dp_valve,T")
+    ins = _with_losses(Input("p_return", "return pressure", p_out0, "pressure"), losses, _TANK_SIDE)
+    if len(ins) > 1:
         p_out = rec.put(Value("back_pressure", "Back pressure at outlet", "p_out", sum(i.value for i in ins),
-                              "pressure", "p_out = " + " + ".join(terms),
-                              "return pressure plus the losses between the motor outlet and tank", tuple(ins), SRC_MOTOR))
+                              "pressure", "p_out = " + " + ".join(i.symbol for i in ins),
+                              "return pressure plus the losses between the motor outlet and tank", ins, SRC_MOTOR))
     else:
         p_out = rec.put(given("back_pressure", "Back pressure at outlet", "p_out", p_out0, "pressure"))
     pout_in = Input("p_out", "back pressure", p_out, "pressure")
@@ -226,20 +231,11 @@ def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup
         p_in = rec.put(Value("inlet_pressure", "Inlet pressure required", "p_in", dp + p_out, "pressure",
                              "p_in = dp + p_out", "pressure differential plus back pressure",
                              (Input("dp", "pressure differential", dp, "pressure"), pout_in), SRC_MOTOR))
-    if "pressure" in losses or "valve_drop_to_motor" in losses:
-        ins = [Input("p_in", "inlet pressure", p_in, "pressure")]
-        terms = ["p_in"]
-        if "pressure" in losses:
-            ins.append(Input("dp_pressure_line", "pressure-line loss", losses["pressure"], "pressure"))
-            terms.append("dp_pressure_line")
-        if "valve_drop_to_motor" in losses:
-            ins.append(Input("dp_valve,P", "directional valve drop to motor", losses["valve_drop_to_motor"],
-                             "pressure"))
-            terms.append("dp_valve,P")
+    ins = _with_losses(Input("p_in", "inlet pressure", p_in, "pressure"), losses, _PRESSURE_SIDE)
+    if len(ins) > 1:
         rec.put(Value("supply_pressure_required", "Pressure the supply must give", "p_supply",
-                      sum(i.value for i in ins), "pressure", "p_supply = " + " + ".join(terms),
-                      "motor inlet pressure plus the losses between the supply and the motor inlet", tuple(ins),
-                      SRC_MOTOR))
+                      sum(i.value for i in ins), "pressure", "p_supply = " + " + ".join(i.symbol for i in ins),
+                      "motor inlet pressure plus the losses between the supply and the motor inlet", ins, SRC_MOTOR))
     rec.put(Value("shaft_power", "Shaft power" + (" absorbed from load" if overrun else ""), "P",
                   motor.shaft_power(t_m, n_m), "power", "P = 2*pi*n*T", "torque times angular speed",
                   (t_in, n_in), SRC_MOTOR))
