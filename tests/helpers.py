@@ -106,3 +106,28 @@ def hoist_lift(d):
     from specgen.pipeline import evaluate
 
     return evaluate(Source("mem.yaml", d, b"")).results.duty("hoist", "lift")
+
+
+def markdown_tables(md: str) -> int:
+    """How many tables ``md`` holds, each asserted whole: a blank line before it, a header, a
+    separator of dashes, and every row (``|`` escaped inside cells) ending " |" with the header's width."""
+    import re
+
+    def cells(line: str) -> list[str]:
+        assert line.startswith("|") and line.endswith("|"), line
+        return re.split(r"(?<!\\)\|", line[1:-1])
+
+    lines, i, tables = md.splitlines(), 0, 0
+    while i < len(lines):
+        if lines[i].startswith("|"):
+            block = []
+            while i < len(lines) and lines[i].startswith("|"):
+                block.append(lines[i])
+                i += 1
+            assert i - len(block) == 0 or lines[i - len(block) - 1] == ""  # a blank line before each table
+            width = len(cells(block[0]))
+            assert re.fullmatch(r"\|(---\|)+", block[1]) and len(cells(block[1])) == width
+            assert all(r.endswith(" |") and len(cells(r)) == width for r in block[:1] + block[2:])
+            tables += 1
+        i += 1
+    return tables

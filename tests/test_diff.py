@@ -8,7 +8,7 @@ import jsonschema
 import pytest
 
 from revisions import commit, example_revision, git, make_repo
-from helpers import EXAMPLE, ROOT, minimal, run_cli
+from helpers import EXAMPLE, ROOT, markdown_tables, minimal, run_cli
 from specgen import exits
 from specgen.diff import compare, diff_inputs
 from specgen.intake.read import load_text
@@ -209,27 +209,9 @@ def regression():
     return compare(evaluate_text(EXAMPLE.read_bytes(), "old.yaml"), evaluate_text(example_revision(HEAVIER).encode(), "new.yaml"))
 
 
-def _cells(line: str) -> list[str]:
-    assert line.startswith("|") and line.endswith("|"), line
-    return re.split(r"(?<!\\)\|", line[1:-1])
-
-
 def test_markdown_tables_are_well_formed(regression):
     md = diff_out.render(regression, "markdown")
-    lines = md.splitlines()
-    tables, i = 0, 0
-    while i < len(lines):
-        if lines[i].startswith("|"):
-            block = []
-            while i < len(lines) and lines[i].startswith("|"):
-                block.append(lines[i])
-                i += 1
-            assert lines[i - len(block) - 1] == ""  # a blank line before each table
-            width = len(_cells(block[0]))
-            assert all(re.fullmatch(r"-{3,}", c) for c in _cells(block[1]))
-            assert len(_cells(block[1])) == width and all(len(_cells(r)) == width for r in block[2:])
-            tables += 1
-        i += 1
+    tables = markdown_tables(md)
     assert tables == 4  # status changes, values moved, results, inputs
     assert "| status | check | where | value before | value now | limit |" in md
     assert "| **pass -> fail** | pressure\\_margin | drive track\\_left, duty point harvest | " in md

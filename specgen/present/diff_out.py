@@ -16,7 +16,7 @@ from specgen.diff import INPUT_TOLERANCE, RESULT_TOLERANCE, CheckChange, Diff, I
 from specgen.present import diff_markdown
 from specgen.present.diff_markdown import MAX_CHARS
 from specgen.present.text import table
-from specgen.present.values import convert, format_si, significant
+from specgen.units import convert, format_si, significant
 from specgen.units import KINDS
 
 DIFF_FORMAT = 1

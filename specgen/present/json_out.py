@@ -9,7 +9,7 @@ import math
 from specgen import __version__
 from specgen.cautions import CAUTIONS
 from specgen.pipeline import Outcome
-from specgen.present.values import convert
+from specgen.units import convert
 from specgen.trace import Value
 from specgen.units import KINDS
 

@@ -17,7 +17,7 @@ import xml.etree.ElementTree as ET
 
 from specgen.cautions import SHORT
 from specgen.pipeline import Outcome
-from specgen.present.values import format_si
+from specgen.units import format_si
 from specgen.safe_text import escape
 
 

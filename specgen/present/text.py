@@ -6,7 +6,7 @@ from specgen.cautions import SHORT
 from specgen.results import RANK
 from specgen.pipeline import Outcome
 from specgen.present.json_out import assumed_list
-from specgen.present.values import format_si
+from specgen.units import format_si
 from specgen.safe_text import escape
 
 DUTY_COLUMNS = (

@@ -4,6 +4,7 @@ regressions first, the caution kept."""
 import re
 
 import yaml
+from helpers import markdown_tables
 
 from specgen.bench import _demo_data, demo_spec, generate
 from specgen.diff import compare
@@ -14,22 +15,6 @@ from specgen.present import diff_markdown, diff_out
 
 def outcome(data: dict, name: str):
     return evaluate(load_text(yaml.safe_dump(data, sort_keys=False).encode(), name))
-
-
-def _tables_whole(md: str) -> int:
-    lines, i, tables = md.splitlines(), 0, 0
-    while i < len(lines):
-        if lines[i].startswith("|"):
-            block = []
-            while i < len(lines) and lines[i].startswith("|"):
-                block.append(lines[i])
-                i += 1
-            width = len(re.split(r"(?<!\\)\|", block[0][1:-1]))
-            assert re.fullmatch(r"\|(---\|)+", block[1])
-            assert all(r.endswith(" |") and len(re.split(r"(?<!\\)\|", r[1:-1])) == width for r in block[:1] + block[2:])
-            tables += 1
-        i += 1
-    return tables
 
 
 def test_a_long_diff_is_cut_to_fit_with_regressions_kept_first():
@@ -46,7 +31,7 @@ def test_a_long_diff_is_cut_to_fit_with_regressions_kept_first():
     cut = diff_out.render(d, "markdown", max_chars=12_000)
     assert len(full) > 12_000 >= len(cut)
     assert "characters; a comment holds 12,000" in cut and "--max-chars 0" in cut
-    assert _tables_whole(cut) >= 1
+    assert markdown_tables(cut) >= 1
     first_regression = next(line for line in full.splitlines() if line.startswith("| **pass -> fail**"))
     assert first_regression in cut
     assert re.search(r"_\d+ more rows? not shown here: see the full diff\._", cut)

@@ -12,7 +12,7 @@ from specgen.pipeline import Outcome
 from specgen.present import charts
 from specgen.present.chart_batch import Batch
 from specgen.present.report.values import plain, show
-from specgen.present.values import convert
+from specgen.units import convert
 
 MARGIN_CHECKS = {
     "pressure_margin": ("inlet vs pressure limit", "given"),

@@ -10,7 +10,7 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass
 
-from specgen.present.values import convert, format_si, significant
+from specgen.units import convert, format_si, significant
 from specgen.trace import Input, Value
 
 STATUS_WORD = {"pass": "PASS", "warn": "WARN", "fail": "FAIL"}
