@@ -1,5 +1,5 @@
-"""Flow and power checks: pump delivery against the flow demand, pump input power against the
-prime mover, and the makeup flow an overrunning motor's inlet needs.
+"""Flow and power checks: pump delivery (a load-sensing pump: the flow it can give) against the flow
+demand, pump input power against the prime mover, and the makeup flow an overrunning motor's inlet needs.
 
 Margins as defined in checks/status.py.
 """
@@ -19,10 +19,11 @@ HOLDING_VALVES = ("counterbalance_valve", "brake_valve", "counterbalance_valve_a
 
 
 def pump_flow(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]:
-    """Pump delivery against the summed flow demand of every mode."""
+    """Pump delivery against the summed flow demand of every mode; a load-sensing pump's against the flow
+    it can give at the mode's pump pressure (its power limiter may destroke it below full delivery)."""
     warn = machine.thresholds.flow_margin_warn.value
     for r in results.supply_modes:
-        q_p, q = r["pump_delivery"], r["flow_demand"]
+        q_p, q = r.values.get("pump_available_flow", r.values["pump_delivery"]).value, r["flow_demand"]
         margin = below(q, q_p)
         st = status(margin, warn)
         yield Check("pump_flow", "Pump delivery covers flow demand", st, q, q_p, "flow",

@@ -30,7 +30,10 @@ Each check's margin, and what it is a fraction of:
     max_speed               (maximum speed - motor speed) / maximum speed
     min_speed               (motor speed - smooth-running minimum) / minimum; worst status: warn
     min_displacement_speed  (maximum speed - speed at the minimum displacement) / maximum speed
-    pump_flow               (pump delivery - flow demand) / pump delivery
+    pump_flow               (pump delivery - flow demand) / pump delivery; load sensing: the flow the pump
+                            can give (its power limiter at the pump pressure) instead of the delivery
+    reached_speed           load sensing: (flow offered to the drive - flow it needs) / flow it needs, the offer
+                            from the pump, priority valve, flow divider and compensators (checks/load_sensing.py)
     prime_mover_power       (prime mover power - pump input power) / prime mover power
     makeup_flow             (flow left for the inlet - overrunning motor's flow) / that motor's flow;
                             worst status warn where a counterbalance or brake valve is declared;

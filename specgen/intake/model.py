@@ -65,10 +65,25 @@ class Pump:
     delivery: float | None
     volumetric_efficiency: Ratio
     overall_efficiency: Ratio
-    control: str = "fixed"  # "fixed" or "pressure_compensated"
+    control: str = "fixed"  # "fixed", "pressure_compensated" or "load_sensing"
     compensator_setting: float | None = None  # Pa
     # Pa absolute, carried as a Ratio so "assumed" travels with it
     min_inlet_pressure: Ratio = Ratio(defaults.PUMP_MIN_INLET, assumed=True, basis=defaults.PUMP_MIN_INLET_BASIS)
+    # load-sensing control (control: load_sensing)
+    ls_margin: float | None = None  # Pa, pump pressure above the highest load-sense pressure (dp_LS)
+    standby_pressure: Ratio | None = None  # Pa, with nothing running; carried as a Ratio so "assumed" travels
+    input_power_limit: float | None = None  # W, power (torque) limiter: the pump destrokes to stay within it
+    input_torque_limit: float | None = None  # N*m, the same limit given as input torque
+
+
+@dataclass(frozen=True)
+class FlowDivider:
+    """A flow divider between two drives of a load-sensing supply: ``ratio`` of its inlet flow goes to
+    the first drive, the rest to the second; ``pressure_drop`` across it at its working flow (maker's data)."""
+
+    drives: tuple[str, str]
+    ratio: float  # share of the inlet flow to drives[0], 0 < ratio < 1
+    pressure_drop: float  # Pa
 
 
 @dataclass(frozen=True)
@@ -88,6 +103,18 @@ class Supply:
     suction_head: float | None = None  # m, oil level above the pump inlet (negative: below)
     strainer_drop: float = 0.0  # Pa, suction strainer pressure drop
     feeds: str | None = None  # what a supply with no drives in the spec feeds (a charge circuit...)
+    ls_valves: str | None = None  # load sensing: "post_compensated" (flow sharing) or "pre_compensated"
+    priority: tuple[str, ...] = ()  # load sensing: drives a priority valve serves first, in this order
+    flow_divider: FlowDivider | None = None  # load sensing: a flow divider between two drives
+
+    @property
+    def load_sensing(self) -> bool:
+        return self.pump.control == "load_sensing"
+
+    @property
+    def strokes_back(self) -> bool:
+        """A variable pump that delivers only the flow the drives take (compensated or load-sensing)."""
+        return self.pump.control in ("pressure_compensated", "load_sensing")
 
     @property
     def compensated(self) -> bool:

@@ -19,7 +19,7 @@ from specgen.intake.build_drives import build_drive, check_targets
 from specgen.intake.build_cycles import build_cycles, build_max_oil_temperature
 from specgen.intake.build_fluid import build_cooler, build_fluid, build_reservoir
 from specgen.intake.build_sizing import build_sizing
-from specgen.intake.build_supplies import build_supply
+from specgen.intake.build_supplies import build_supply, ls_references
 from specgen.intake.model import Machine, Mode, Ratio, Thresholds
 from specgen.intake.quantities import Builder
 from specgen.intake.read import Source, problem
@@ -133,6 +133,7 @@ def build_with_corners(source: Source, directions: Directions,
         max_oil_temperature=build_max_oil_temperature(b, d),
     )
     _references(b, d)
+    ls_references(b, d)
     model = _named_tables(b, d, model)
     model, contradictions = directions(model)
     for path, message in contradictions:

@@ -18,6 +18,7 @@ Pure: SI floats in, traced Values out.
 from __future__ import annotations
 
 from specgen.calc import heat, supply as pump
+from specgen.resolve.load_sensing import ls_pump_and_heat
 from specgen.resolve.record import Record, eff
 from specgen.resolve.lines import line_values
 from specgen.resolve.series import series_start
@@ -49,7 +50,7 @@ def supply_base(sup: Supply, fluid: FluidResult) -> dict[str, Value]:
     if p.delivery is not None:
         rec.put(given("pump_delivery", "Pump delivery", "q_p", p.delivery, "flow"))
     else:
-        rec.put(Value("pump_delivery", "Pump delivery" + (" at full stroke" if sup.compensated else ""), "q_p",
+        rec.put(Value("pump_delivery", "Pump delivery" + (" at full stroke" if sup.strokes_back else ""), "q_p",
                       pump.delivery(p.displacement, n_p, p.volumetric_efficiency.value), "flow",
                       "q_p = Vp * n_p * eta_v,p", "pump displacement times shaft speed times volumetric efficiency",
                       (Input("Vp", "pump displacement", p.displacement, "displacement"),
@@ -111,7 +112,10 @@ def resolve_supply_mode(machine: Machine, sup: Supply, mode, duties: dict, base:
                   "dq = q_p - q_sum", "pump delivery less the flow the drives take",
                   (Input("q_p", "pump delivery", q_pump, "flow"), Input("q_sum", "flow demand", demand, "flow")), ""))
     _makeup(rec, machine, sup, running, pumped, duties, q_pump, demand)
-    _pump_and_heat(rec, sup, pumped, running, duties, q_pump, demand, p_work, base)
+    if sup.load_sensing:  # the highest need plus the margin, the flow shared out: resolve/load_sensing.py
+        _prime_mover(rec, sup, base, ls_pump_and_heat(rec, sup, pumped, running, duties, base))
+    else:
+        _pump_and_heat(rec, sup, pumped, running, duties, q_pump, demand, p_work, base)
     return SupplyModeResult(sup.id, mode.id, contributions, rec.values, rec.per_drive, tuple(rec.order))
 
 
@@ -171,13 +175,13 @@ def _makeup(rec: Record, machine: Machine, sup: Supply, running, pumped, duties,
         returning = [(od, ou) for od, ou in others if (od, ou) in pumped]
         back = sum(duties[k]["flow_demand"] for k in returning)
         # a compensated pump strokes back: its unused delivery never flows
-        surplus = 0.0 if sup.compensated else max(q_pump - demand, 0.0)
+        surplus = 0.0 if sup.strokes_back else max(q_pump - demand, 0.0)
         rec.put(Value("makeup_available", f"Flow returning to tank that can fill {d}'s inlet", "q_makeup",
                       back + surplus, "flow", "q_makeup = sum(q_return,other) + q_surplus",
                       "the other drives' return flow and the pump's surplus, drawn through the makeup valves",
                       tuple(Input(indexed("q", od), f"{od} at {ou} returning", duties[(od, ou)]["flow_demand"], "flow")
                             for od, ou in returning)
-                      + (Input("q_surplus", "pump surplus to tank" + (" (compensated pump: none)" if sup.compensated
+                      + (Input("q_surplus", "pump surplus to tank" + (" (compensated pump: none)" if sup.strokes_back
                                                                       else ""), surplus, "flow"),),
                       "continuity of flow"), drive=d)
         rec.put(Value("makeup_pressure", "Return pressure at the makeup valves", "p_makeup", sup.return_pressure,
@@ -228,6 +232,12 @@ def _pump_and_heat(rec: Record, sup: Supply, pumped, running, duties, q_pump, de
                                     ("supplies", sup.id, "pump", "overall_efficiency")),), SRC_PUMP,
                          note="surplus flow is taken as returned at the working pressure"
                          if not sup.compensated and sup.surplus_to == "working_pressure" else ""))
+    _prime_mover(rec, sup, base, p_in)
+    _heat(rec, hb, shaft, braking, share)
+
+
+def _prime_mover(rec: Record, sup: Supply, base, p_in: float) -> None:
+    """Pump input torque and what the pump takes from its prime mover."""
     pin_in = Input("P_in", "pump input power", p_in, "power")
     if "pump_shaft_speed" in base:
         n_p = base["pump_shaft_speed"].value
@@ -241,7 +251,6 @@ def _pump_and_heat(rec: Record, sup: Supply, pumped, running, duties, q_pump, de
                       pump.input_torque(p_in, sup.prime_mover_speed), "torque", "T_pm = P_in / (2*pi*n_pm)",
                       "pump input power at the prime mover's speed (losses of a pump drive gearbox neglected)",
                       (pin_in, Input("n_pm", "prime mover speed", sup.prime_mover_speed, "speed")), SRC_PUMP))
-    _heat(rec, hb, shaft, braking, share)
 
 
 def _heat(rec: Record, hb, shaft: float, braking, share: float) -> None:
