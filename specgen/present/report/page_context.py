@@ -18,6 +18,7 @@ from specgen.present.chart_batch import Batch
 from specgen.present.markdown_text import to_html
 from specgen.present.report.chart_data import cycle_chart, drive_charts, margin_charts, supply_charts
 from specgen.present.report.entered import drive_rows, duty_rows, fluid_rows, given_text, supply_rows
+from specgen.present.report.load_sensing import ls_context
 from specgen.present.report.values import STATUS_WORD, show, slug, trace_row
 from specgen.results import Check
 
@@ -186,6 +187,7 @@ def _supply_context(o: Outcome, sup, system: str, checks: list[dict], fig_n, dra
         "table": _table(modes, SUPPLY_COLUMNS, system, ["Mode"], [[x.mode] for x in modes]),
         "drives": [{"id": d.id, "anchor": f"drive-{slug(d.id)}"} for d in m.drives if d.supply == sup.id],
         "charts": supply_charts(o, sup, modes, system, fig_n, draw) if modes else [],
+        "load_sensing": ls_context(o, sup, system, fig_n, draw) if modes else None,
         "traces": traces, "checks": [c for c in checks if c["target"] == f"supply-{slug(sup.id)}"],
     }
 
