@@ -80,3 +80,12 @@ def test_ls_valves_refused_on_a_fixed_pump(tmp_path):
     d = minimal()
     d["supplies"]["main"]["ls_valves"] = "post_compensated"
     assert "ls_valves applies only to a pump with control: load_sensing" in _error(tmp_path, d)
+
+
+def test_missing_margin_is_reported_at_the_control_line(tmp_path):
+    d = rig()
+    del d["supplies"]["main"]["pump"]["ls_margin"]
+    path = write_spec(tmp_path, d)
+    code, out, err = run_cli("check", path)
+    line = next(n for n, t in enumerate(path.read_text().splitlines(), 1) if t.strip().startswith("control:"))
+    assert code == 2 and f":{line}:" in err and "supplies.main.pump.control" in err

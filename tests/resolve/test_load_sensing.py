@@ -173,3 +173,20 @@ def test_standby_pressure_when_nothing_takes_flow():
     r = mode(rig(), "lowering")
     assert r["pump_pressure"] / BAR == pytest.approx(20.0)
     assert r.values["pump_pressure"].assumed
+
+
+def test_a_corner_moves_the_margin():
+    from specgen.intake.read import Source
+    from specgen.pipeline import evaluate
+
+    d = rig()
+    d["supplies"]["main"]["prime_mover_power"] = "41 kW"
+    d["corners"] = {"high_margin": {"title": "Margin at the top of its tolerance", "scale": {
+        "supplies.main.pump.ls_margin": "+50 %"}}}
+    r = evaluate(Source("mem.yaml", d, b"")).results
+    # nominal: 230 bar, P_in 40 588 W against 41 kW: (41 000 - 40 588)/41 000 = 1.0 %, a warning;
+    # at the corner dp_LS 30 bar: 240e5 * 1.5e-3 / 0.85 = 42 353 W > 41 kW: fail, reported at the corner
+    assert r.supply_mode("main", "work")["pump_pressure"] / BAR == pytest.approx(230.0, rel=1e-6)
+    c = next(c for c in r.checks if c.id == "prime_mover_power" and c.mode == "work")
+    assert (c.status, c.corner) == ("fail", "high_margin")
+    assert c.value == pytest.approx(42352.9, rel=1e-5)
