@@ -60,3 +60,12 @@ def test_report_shows_the_load_sensing_block(tmp_path):
     block = page[page.index('id="supply-crane-ls"'):]
     assert "<td>slew at turn</td><td class=\"num\">89.09 bar</td>" in block and "7.390 kW" in block
     assert "pump pressure and drive needs by mode" in block and "flow asked and delivered by mode" in block
+
+
+def test_report_of_a_load_sensing_supply_is_the_same_bytes_twice(tmp_path):
+    from helpers import run_cli
+
+    spec = ROOT / "tests" / "specs" / "timber_crane.yaml"
+    run_cli("report", spec, "-o", tmp_path / "a")
+    run_cli("report", spec, "-o", tmp_path / "b")
+    assert (tmp_path / "a" / "index.html").read_bytes() == (tmp_path / "b" / "index.html").read_bytes()

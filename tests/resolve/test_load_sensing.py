@@ -190,3 +190,19 @@ def test_a_corner_moves_the_margin():
     c = next(c for c in r.checks if c.id == "prime_mover_power" and c.mode == "work")
     assert (c.status, c.corner) == ("fail", "high_margin")
     assert c.value == pytest.approx(42352.9, rel=1e-5)
+
+
+@pytest.mark.parametrize("q_max, valves, relief, limit", [
+    ("100 L/min", "post_compensated", "250 bar", None), ("75 L/min", "pre_compensated", "250 bar", None),
+    ("100 L/min", "post_compensated", "220 bar", None), ("100 L/min", "pre_compensated", "220 bar", "30 kW"),
+])
+def test_heat_terms_add_up_to_the_heat_load(q_max, valves, relief, limit):
+    # first law: P_in - P_shaft = pump loss + throttling + flow over relief + lines, valve drops and motors
+    d = rig(q_max=q_max, valves=valves, **({"input_power_limit": limit} if limit else {}))
+    d["supplies"]["main"]["relief_setting"] = relief
+    r = mode(d)
+    parts = sum(r.values[k].value for k in ("heat_pump_loss", "heat_throttling", "heat_surplus_loss",
+                                            "heat_drive_loss") if k in r.values)
+    assert parts == pytest.approx(r["heat_load"], rel=1e-9)
+    assert r["heat_load"] == pytest.approx(r["pump_input_power"] - r["useful_shaft_power"], rel=1e-9)
+    assert r["pump_delivered_flow"] <= r["pump_available_flow"] * (1 + 1e-12)
