@@ -74,15 +74,15 @@ def ls_pump_and_heat(rec: Record, sup: Supply, pumped, running, duties, base) ->
         consumers.append(ls.Consumer(t.demand * f, t.need, t.priority))
     offers = ls.offered_flows(consumers, q_avail, sup.ls_valves)
     reached_total = 0.0
-    drive_flows = {}  # drive id -> (flow offered, flow reached)
+    drive_flows = {}  # drive id -> (flow offered, flow reached, the sharing rule)
     for t, f, offer in zip(takers, factors, offers):
         can = offer if f >= 1.0 else min(offer, t.demand * f)
         got = min(t.demand, can)
         reached_total += got
         if t.legs is None:
-            drive_flows[t.name] = (can, got)
+            drive_flows[t.name] = (can, got, _rule(t, sup.ls_valves, f))
         else:
-            _divider(rec, sup.flow_divider, t, can, got, drive_flows)
+            _divider(rec, sup.flow_divider, t, can, got, drive_flows, _rule(t, sup.ls_valves, f))
     q_del = q_avail if capped else reached_total
     rec.put(Value("pump_delivered_flow", "Flow the pump delivers", "q_del", q_del, "flow",
                   "q_del = q_avail" if capped else "q_del = sum(q_reached,i)",
@@ -95,7 +95,7 @@ def ls_pump_and_heat(rec: Record, sup: Supply, pumped, running, duties, base) ->
                          (Input("q_del", "delivered flow", q_del, "flow"),
                           Input("p_pump", "pump outlet pressure", p_pump, "pressure"),
                           eff("eta_t", "pump overall efficiency", eta_t, where + ("overall_efficiency",))), SRC_PUMP))
-    shares = _per_drive(rec, sup, pumped, duties, drive_flows, p_pump, split)
+    shares = _per_drive(rec, sup, pumped, duties, drive_flows, p_pump, q_avail, split)
     throttled = sum(rec.per_drive[d]["throttling_loss"].value for d in drive_flows)
     braking = [duties[k] for k in running if duties[k].direction == "overrunning"]
     useful = sum(duties[k]["shaft_power"] * shares[k[0]] for k in pumped if duties[k].direction != "overrunning")
@@ -178,11 +178,23 @@ def _available(rec: Record, sup: Supply, p_pump: float, q_max: float, base) -> f
                          note="the limiter destrokes the pump" if q < q_max else "the limiter leaves full stroke"))
 
 
-def _divider(rec: Record, div, taker: _Taker, can: float, got: float, drive_flows: dict) -> None:
+def _rule(t: _Taker, valves: str, f: float) -> str:
+    """The sharing rule that offered ``t`` its flow, as a formula."""
+    if t.priority is not None:
+        rule = "q_offer = q_avail - sum(q_reached of the priority drives before it)"
+    elif valves == "post_compensated":
+        rule = "q_offer = q * q_left / sum(q_j), q_left after the priority drives"
+    else:
+        rule = "q_offer = q_left after the drives needing less pressure and the priority drives"
+    return rule + (", at most q * sqrt(dp_available / dp_LS)" if f < 1.0 else "")
+
+
+def _divider(rec: Record, div, taker: _Taker, can: float, got: float, drive_flows: dict, rule: str) -> None:
     """Split the divider's offered and reached inlet flow between its legs and record its loss."""
     (d1, p1), (d2, p2) = taker.legs
     for d, share in ((d1, div.ratio), (d2, 1.0 - div.ratio)):
-        drive_flows[d] = (can * share, got * share)
+        drive_flows[d] = (can * share, got * share, f"q_offer = r_leg * q_offer,div (r_leg = {share:.4g}; the divider's "
+                          f"{rule.replace('q_offer =', 'q_offer,div =')})")
     rec.put(Value("flow_divider_loss", "Power lost in the flow divider", "P_div",
                   ls.divider_loss(got, div.ratio, div.pressure_drop, p1, p2), "power",
                   "P_div = dp_div * q_in + |p_1 - p_2| * q_low",
@@ -194,7 +206,7 @@ def _divider(rec: Record, div, taker: _Taker, can: float, got: float, drive_flow
                   SRC_DIVIDER))
 
 
-def _per_drive(rec: Record, sup: Supply, pumped, duties, drive_flows: dict, p_pump: float,
+def _per_drive(rec: Record, sup: Supply, pumped, duties, drive_flows: dict, p_pump: float, q_avail: float,
                split: bool) -> dict[str, float]:
     """Each drive's offered and reached flow, reached speed and throttling loss; returns reached / demand."""
     legs = sup.flow_divider.drives if split else ()
@@ -202,14 +214,15 @@ def _per_drive(rec: Record, sup: Supply, pumped, duties, drive_flows: dict, p_pu
     for d, u in pumped:
         r = duties[(d, u)]
         q, n = r["flow_demand"], r["motor_speed"]
-        offer, got = drive_flows[d]
+        offer, got, rule = drive_flows[d]
         if d in legs:
             words, src = "its leg of what the divider is offered (it may exceed the demand: the drive runs faster)", \
                 SRC_DIVIDER
         else:
             words, src = "what the priority valve and the compensators leave this drive", SRC_SHARE
-        rec.put(Value("flow_offered", f"Flow offered to {d}", "q_offer", offer, "flow", "see the sharing rule",
-                      words, (Input("q", "flow demand", q, "flow"),), src), drive=d)
+        rec.put(Value("flow_offered", f"Flow offered to {d}", "q_offer", offer, "flow", rule,
+                      words, (Input("q", "flow demand", q, "flow"),
+                              Input("q_avail", "flow the pump can give", q_avail, "flow")), src), drive=d)
         rec.put(Value("reached_flow", f"Flow {d} gets", "q_reached", got, "flow",
                       "q_reached = q_leg" if src == SRC_DIVIDER else "q_reached = min(q, q_offer)",
                       "its demand, or less where the pump, the margin or the sharing cut it",
