@@ -44,7 +44,7 @@ def build_supply(b: Builder, sid: str, s: dict, fluid: Fluid | None) -> Supply:
         suction_head=b.quantity(s.get("suction", {}), "head", path + ("suction",), "length", sign="any"),
         strainer_drop=b.quantity(s.get("suction", {}), "strainer_drop", path + ("suction",), "pressure",
                                  sign="nonnegative", default=0.0),
-        feeds=s.get("feeds"),
+        feeds=s.get("feeds"), prime_mover=s.get("prime_mover"),
     )
 
 
@@ -92,7 +92,7 @@ def _prime_mover_speed(b: Builder, s: dict, path: tuple, pump: Pump) -> tuple[fl
         b.fail(path + ("drive_ratio",), f"drive ratio {ratio!r} must be a finite number above zero")
         ratio = None
     shaft = pump.shaft_speed
-    if "displacement" in s["pump"] and shaft is None and pm_speed is None:
+    if "displacement" in s["pump"] and shaft is None and pm_speed is None and "prime_mover" not in s:
         b.fail(ppath, "give the pump's shaft_speed, or the supply's prime_mover_speed (the pump then turns at "
                       "prime_mover_speed times drive_ratio)")
     if shaft is not None and pm_speed is not None and math.isfinite(shaft) and math.isfinite(pm_speed):
