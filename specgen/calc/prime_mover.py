@@ -1,6 +1,6 @@
 """A prime mover shared by several pumps: the power it gives at a speed, and pump torques referred to it.
 
-Relations (primer section 16; pump relations in calc/supply.py):
+Relations (power balance on a shaft, fluid-power textbook; pump relations in calc/supply.py):
   power at speed     P(n) = P_a + (P_b - P_a) * (n - n_a) / (n_b - n_a) between the curve points a, b
                      with n_a <= n <= n_b (linear interpolation); no curve: the rated power at every speed.
                      Outside the curve nothing is extrapolated: a ValueError.

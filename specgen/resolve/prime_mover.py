@@ -9,7 +9,7 @@ the power it gives at that speed (its power curve, else its rated power) and the
 gives there. A negative sum is power the pumps return to the prime mover (an overrunning load on a
 closed loop): ``torque_returned`` is then the braking torque it must absorb.
 
-Relations: specgen/calc/prime_mover.py (primer section 16). Pure: SI floats in, traced Values out.
+Relations: specgen/calc/prime_mover.py. Pure: SI floats in, traced Values out.
 
 Example (hand calculation): engine 75 kW rated at 2200 rpm; pump A on ratio 1.0 takes 38 kW, pump B
 on ratio 1.2 takes 30 kW at rated speed: A turns at 2200 rpm, B at 2640 rpm, the sum is 68 kW against
@@ -28,7 +28,7 @@ from specgen.resolve.supply import supply_base
 from specgen.results import FluidResult, PrimeMoverModeResult, SupplyModeResult
 from specgen.trace import Input, Value, indexed
 
-SRC_SHARED = "one prime mover driving several pumps: input powers add at its shaft (primer section 16)"
+SRC_SHARED = "power balance at the prime mover's shaft: the input powers (and torques) of the pumps it drives add"
 SRC_CURVE = "linear interpolation between the points of the prime mover's power curve (maker's data as entered)"
 SRC_TORQUE = "power balance through the pump drive, T = P / (2*pi*n) (losses of the drive neglected)"
 
@@ -46,8 +46,8 @@ def speed_value(machine: Machine, sup: Supply, mode: Mode | None = None) -> Valu
         return None
     mover = machine.prime_mover(sup.prime_mover)
     name, n = mode_speed(mover, mode)
-    return Value("prime_mover_speed", "Prime mover speed", "n_pm", n, "speed", "", "as entered", (), "",
-                 note=f"prime mover {mover.id} at its '{name}' speed")
+    return Value("prime_mover_speed", "Prime mover speed", "n_pm", n, "speed", "",
+                 f"prime mover {mover.id} at its '{name}' speed, as entered", (), "")
 
 
 def mode_base(machine: Machine, sup: Supply, mode: Mode, base: dict, fluid: FluidResult) -> dict:
@@ -122,8 +122,7 @@ def _load(mover: PrimeMover, mode: Mode, parts: list[tuple[Supply, SupplyModeRes
             (Input("T_p", "pump input torque", t_p, "torque"), Input("i_pd", "pump drive ratio", sup.drive_ratio, "ratio")),
             SRC_TORQUE)
         per_supply[sup.id] = mine
-    rec.put(Value("prime_mover_speed", "Prime mover speed", "n_pm", n, "speed", "", "as entered", (), "",
-                  note=f"'{name}' speed"))
+    rec.put(Value("prime_mover_speed", "Prime mover speed", "n_pm", n, "speed", "", f"the '{name}' speed, as entered"))
     p_avail = rec.put(power_available(mover, name, n))
     rec.put(Value("torque_available", "Torque available at this speed", "T_avail", pump.input_torque(p_avail, n),
                   "torque", "T_avail = P_avail / (2*pi*n_pm)", "the power available over the angular speed",
