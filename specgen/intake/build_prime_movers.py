@@ -14,7 +14,7 @@ Rules (each refusal is a problem at its field):
   pump's ``shaft_speed``: the pump turns at the prime mover's speed in the mode times ``drive_ratio``.
 
 Example: ``{diesel: {kind: engine, power: 75 kW, speeds: {idle: 1000 rpm, rated: 2200 rpm}}}``
-builds one PrimeMover with power 75000.0 W, speeds (("idle", 16.67), ("rated", 36.67)) rev/s and
+builds one PrimeMover with power 75000.0 W, speeds {"idle": 16.67, "rated": 36.67} rev/s and
 default speed "rated".
 """
 
@@ -32,8 +32,8 @@ def build_prime_movers(b: Builder, d: dict) -> tuple[PrimeMover, ...]:
 
 def _prime_mover(b: Builder, pid: str, p: dict) -> PrimeMover:
     path = ("prime_movers", pid)
-    speeds = tuple((name, b.quantity(p["speeds"], name, path + ("speeds",), "speed")) for name in p["speeds"])
-    names = [name for name, _ in speeds]
+    speeds = {name: b.quantity(p["speeds"], name, path + ("speeds",), "speed") for name in p["speeds"]}
+    names = list(speeds)
     if DEFAULT_SPEED in names:
         default = DEFAULT_SPEED
     elif len(names) == 1:
@@ -46,10 +46,11 @@ def _prime_mover(b: Builder, pid: str, p: dict) -> PrimeMover:
                              b.quantity(pt, "power", path + ("power_curve", i), "power"))
                   for i, pt in enumerate(p.get("power_curve") or ()))
     _check_curve(b, path, curve, speeds)
-    max_speed = b.quantity(p, "max_speed", path, "speed")
-    return PrimeMover(id=pid, title=p.get("title", pid), kind=p["kind"], power=b.quantity(p, "power", path, "power"),
-                      speeds=speeds, default_speed=default, power_curve=curve, max_speed=max_speed,
-                      motoring_torque=b.quantity(p, "motoring_torque", path, "torque"))
+    power = b.quantity(p, "power", path, "power")
+    return PrimeMover(id=pid, title=p.get("title", pid), kind=p["kind"], power=power, speeds=speeds,
+                      default_speed=default, power_curve=curve, max_speed=b.quantity(p, "max_speed", path, "speed"),
+                      motoring_torque=b.quantity(p, "motoring_torque", path, "torque"),
+                      curve_basis=power if curve else None)
 
 
 def _finite(x) -> bool:
@@ -64,7 +65,7 @@ def _check_curve(b: Builder, path: tuple, curve: tuple[PowerPoint, ...], speeds)
             b.fail(path + ("power_curve", i, "speed"), "the power curve's speeds must rise from point to point")
             return
     lo, hi = curve[0].speed, curve[-1].speed
-    for name, n in speeds:
+    for name, n in speeds.items():
         if _finite(n) and not lo <= n <= hi:
             b.fail(path + ("speeds", name),
                    f"speed '{name}' ({n * 60:.6g} rpm) lies outside the power curve ({lo * 60:.6g} to {hi * 60:.6g} rpm); "

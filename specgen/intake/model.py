@@ -288,23 +288,26 @@ class PowerPoint:
 class PrimeMover:
     """An engine or electric motor that drives one or more pumps (supplies name it by id).
 
-    ``speeds``: (name, rev/s) in the spec's order; ``default_speed`` the name modes run at unless
+    ``speeds``: name -> rev/s in the spec's order; ``default_speed`` the name modes run at unless
     they name another (the one called ``rated``, else the only one). ``power_curve``: rising speeds;
     between its points the power is interpolated linearly, never extrapolated (every named speed lies
-    on it, refused at intake otherwise). Without a curve the power is ``power`` at every speed."""
+    on it, refused at intake otherwise). Without a curve the power is ``power`` at every speed.
+    ``curve_basis``: the rated power as entered beside the curve; an operating corner that moves
+    ``power`` scales the whole curve by power / curve_basis (a derated engine is derated at every speed)."""
 
     id: str
     title: str
     kind: str  # "engine" or "electric_motor"
     power: float  # W, rated
-    speeds: tuple[tuple[str, float], ...]
+    speeds: dict[str, float]
     default_speed: str
     power_curve: tuple[PowerPoint, ...] = ()
     max_speed: float | None = None  # rev/s, overspeed limit
     motoring_torque: float | None = None  # N*m the prime mover can absorb when the pumps drive it
+    curve_basis: float | None = None  # W
 
     def speed(self, name: str) -> float:
-        return dict(self.speeds)[name]
+        return self.speeds[name]
 
 
 @dataclass(frozen=True)

@@ -62,26 +62,31 @@ def mode_base(machine: Machine, sup: Supply, mode: Mode, base: dict, fluid: Flui
 
 
 def power_available(mover: PrimeMover, name: str, n: float) -> Value:
-    """The power ``mover`` gives at speed ``n`` (named ``name``): its curve, else its rated power."""
+    """The power ``mover`` gives at speed ``n`` (named ``name``): its curve, else its rated power. A curve
+    follows its rated power when an operating corner moves it: P = k * P_curve(n), k = P_rated / P_basis
+    (k is exactly 1 at the nominal point and left out of the trace there)."""
     if not mover.power_curve:
         return Value("power_available", "Prime mover power available", "P_avail", mover.power, "power",
                      "P_avail = P_rated", "rated power (no power curve given)",
                      (Input("P_rated", "rated power", mover.power, "power"),), "as entered")
     curve = tuple((p.speed, p.power) for p in mover.power_curve)
-    value = pm_calc.power_at(n, mover.power, curve)
+    k = mover.power / mover.curve_basis if mover.curve_basis else 1.0
+    value = pm_calc.power_at(n, mover.power, curve) * k
     a = max((p for p in mover.power_curve if p.speed <= n), key=lambda p: p.speed, default=mover.power_curve[0])
     b = min((p for p in mover.power_curve if p.speed >= n), key=lambda p: p.speed, default=mover.power_curve[-1])
+    scaled = (Input("k", "rated power at this corner / as entered", k, "number"),) if k != 1.0 else ()
+    pre, post = ("k * (", ")") if scaled else ("", "")
     if a.speed == b.speed:
         return Value("power_available", "Prime mover power available", "P_avail", value, "power",
-                     "P_avail = P(n)", f"the power curve's point at the '{name}' speed",
-                     (Input("n", f"speed '{name}'", n, "speed"), Input("P(n)", "power at that point", a.power, "power")),
-                     SRC_CURVE)
+                     f"P_avail = {pre}P(n){post}", f"the power curve's point at the '{name}' speed",
+                     (Input("n", f"speed '{name}'", n, "speed"), Input("P(n)", "power at that point", a.power, "power"))
+                     + scaled, SRC_CURVE)
     return Value("power_available", "Prime mover power available", "P_avail", value, "power",
-                 "P_avail = P_a + (P_b - P_a) * (n - n_a) / (n_b - n_a)",
+                 f"P_avail = {pre}P_a + (P_b - P_a) * (n - n_a) / (n_b - n_a){post}",
                  f"power curve read linearly at the '{name}' speed between its neighbouring points",
                  (Input("n", f"speed '{name}'", n, "speed"), Input("n_a", "curve point below", a.speed, "speed"),
                   Input("P_a", "power there", a.power, "power"), Input("n_b", "curve point above", b.speed, "speed"),
-                  Input("P_b", "power there", b.power, "power")), SRC_CURVE)
+                  Input("P_b", "power there", b.power, "power")) + scaled, SRC_CURVE)
 
 
 def prime_mover_power_at(machine: Machine, supply_id: str, mode_id: str) -> float | None:

@@ -40,7 +40,7 @@ def test_prime_mover_built_in_si_with_its_default_speed():
     m = build(shared_engine())
     (pm,) = m.prime_movers
     assert pm.kind == "engine" and pm.power == pytest.approx(75e3)
-    assert pm.speeds == (("idle", pytest.approx(1000 / 60)), ("rated", pytest.approx(2200 / 60)))
+    assert pm.speeds == {"idle": pytest.approx(1000 / 60), "rated": pytest.approx(2200 / 60)}
     assert pm.default_speed == "rated"  # the one named rated
     assert [(p.speed * 60, p.power) for p in pm.power_curve] == [pytest.approx((1000, 40e3)),
                                                                  pytest.approx((2200, 75e3))]
@@ -144,3 +144,11 @@ def test_a_spec_with_per_supply_prime_mover_keys_still_builds(tmp_path):
     d["drives"]["aux_fan"] = dict(d["drives"]["fan"], supply="aux")
     code, out, err = run_cli("check", write_spec(tmp_path, yaml.safe_dump(d, sort_keys=False)))
     assert code in (0, 1), err
+
+
+def test_a_corner_cannot_move_a_named_speed(tmp_path):
+    d = shared_engine()
+    d["corners"] = {"slow": {"set": {"prime_movers.diesel.speeds.idle": "900 rpm"}}}
+    (e,) = refused(tmp_path, d)
+    assert e["path"] == "corners.slow.set.prime_movers.diesel.speeds.idle"
+    assert "is not a field specgen can move" in e["message"]

@@ -128,3 +128,18 @@ def test_pumps_returning_power_drive_the_engine():
 def test_a_mode_running_no_pump_on_the_engine_gives_no_record():
     m = outcome().machine
     assert resolve_prime_movers(m, ()) == ()
+
+
+def test_a_corner_derating_the_engine_scales_its_whole_curve():
+    # rated power -10 %: the curve follows it, k = 67.5 / 75 = 0.9; at rated speed 75 * 0.9 = 67.5 kW, and the
+    # 68 kW the pumps take no longer fits (hand calculation)
+    d = shared_engine()
+    d["corners"] = {"hot_day": {"title": "Derated engine", "scale": {"prime_movers.diesel.power": "-10 %"}}}
+    (c,) = [c for c in outcome(d).results.checks if c.id == "prime_mover_load" and c.mode == "dig"]
+    assert c.corner == "hot_day" and c.status == "fail"
+    assert c.limit == pytest.approx(67.5e3) and c.margin == pytest.approx((67.5 - 68) / 67.5)
+
+
+def test_nominal_curve_trace_has_no_corner_factor():
+    x = outcome().results.prime_mover_mode("diesel", "dig")
+    assert "k" not in [i.symbol for i in x.values["power_available"].inputs]

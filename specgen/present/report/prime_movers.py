@@ -24,7 +24,7 @@ def anchor(prime_mover: str, mode: str | None = None) -> str:
 
 def _entered(mover, system: str) -> str:
     parts = [f"rated power {show(mover.power, 'power', system)}",
-             "speeds " + ", ".join(f"{name} {show(n, 'speed', system)}" for name, n in mover.speeds)
+             "speeds " + ", ".join(f"{name} {show(n, 'speed', system)}" for name, n in mover.speeds.items())
              + f" (default: {mover.default_speed})"]
     if mover.power_curve:
         parts.append("power curve " + ", ".join(f"{show(p.power, 'power', system)} at {show(p.speed, 'speed', system)}"
