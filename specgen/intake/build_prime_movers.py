@@ -92,7 +92,8 @@ def check_prime_mover_references(b: Builder, d: dict) -> None:
                    f"supply '{sid}' is driven by prime mover '{s['prime_mover']}': its pump turns at the prime mover's "
                    "speed in each mode times drive_ratio; remove shaft_speed")
     driven = {s["prime_mover"] for s in d["supplies"].values() if "prime_mover" in s}
-    for pid in movers:
+    # a supply naming an unknown prime mover is reported on its own: the one it meant may be the one left bare
+    for pid in movers if driven <= set(movers) else ():
         if pid not in driven:
             b.fail(("prime_movers", pid), f"prime mover '{pid}' drives no supply; name it from a supply's "
                                           "prime_mover or remove it")
