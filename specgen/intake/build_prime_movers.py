@@ -11,7 +11,8 @@ Rules (each refusal is a problem at its field):
 - power curve: speeds strictly rising; every named speed must lie within the curve's speeds
   (nothing is extrapolated, so a speed outside it is refused here, never judged by a guess).
 - a supply on a prime mover gives neither ``prime_mover_power`` nor ``prime_mover_speed`` nor its
-  pump's ``shaft_speed``: the pump turns at the prime mover's speed in the mode times ``drive_ratio``.
+  pump's ``shaft_speed``: the pump turns at the prime mover's speed in the mode times ``drive_ratio``;
+  its pump is given by displacement, not by a delivered flow (which could not follow the speed).
 
 Example: ``{diesel: {kind: engine, power: 75 kW, speeds: {idle: 1000 rpm, rated: 2200 rpm}}}``
 builds one PrimeMover with power 75000.0 W, speeds {"idle": 16.67, "rated": 36.67} rev/s and
@@ -91,6 +92,10 @@ def check_prime_mover_references(b: Builder, d: dict) -> None:
             b.fail(path + ("pump", "shaft_speed"),
                    f"supply '{sid}' is driven by prime mover '{s['prime_mover']}': its pump turns at the prime mover's "
                    "speed in each mode times drive_ratio; remove shaft_speed")
+        if "delivery" in s["pump"]:
+            b.fail(path + ("pump", "delivery"),
+                   f"supply '{sid}' is driven by prime mover '{s['prime_mover']}', whose speed changes from mode to "
+                   "mode: give the pump's displacement (its delivery follows the speed), not a delivered flow")
     driven = {s["prime_mover"] for s in d["supplies"].values() if "prime_mover" in s}
     # a supply naming an unknown prime mover is reported on its own: the one it meant may be the one left bare
     for pid in movers if driven <= set(movers) else ():

@@ -173,3 +173,10 @@ def test_overspeed_warns_when_returned_torque_meets_no_motoring_torque():
 
 def test_no_overspeed_check_without_a_limit_or_returned_torque():
     assert spec_checks(shared_engine(), "prime_mover_overspeed") == []
+
+
+def test_an_electric_motor_is_named_as_such():
+    d = rated_power(60.0)  # 68 kW of 60 kW: fail
+    d["prime_movers"]["diesel"]["kind"] = "electric_motor"
+    c = spec_check(d, "prime_mover_load", prime_mover="diesel", mode="dig")
+    assert c.status == "fail" and "the electric motor will stall or trip" in c.message

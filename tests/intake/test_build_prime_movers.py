@@ -152,3 +152,11 @@ def test_a_corner_cannot_move_a_named_speed(tmp_path):
     (e,) = refused(tmp_path, d)
     assert e["path"] == "corners.slow.set.prime_movers.diesel.speeds.idle"
     assert "is not a field specgen can move" in e["message"]
+
+
+def test_a_delivered_flow_on_a_prime_mover_is_refused(tmp_path):
+    # a delivered flow cannot follow the prime mover's speed from mode to mode: the displacement is needed
+    d = shared_engine()
+    d["supplies"]["rear"]["pump"] = {"delivery": "60 L/min", "overall_efficiency": 0.8}
+    (e,) = refused(tmp_path, d)
+    assert e["path"] == "supplies.rear.pump.delivery" and "give the pump's displacement" in e["message"]
