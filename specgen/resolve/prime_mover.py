@@ -2,7 +2,9 @@
 
 For a supply that names a prime mover (``Supply.prime_mover``) the pump turns at the prime mover's
 speed in the mode times the supply's drive ratio (``mode_base``: the supply's base values computed at
-that speed; a supply with its own prime mover figures keeps its one base for every mode). After every
+that speed; a supply with its own prime mover figures keeps its one base for every mode). The values
+that belong to no mode (suction line, pump inlet, the flow a variable motor's control may use) are
+computed at the fastest speed any of the supply's modes runs the prime mover at (``fastest_speed``). After every
 supply in every mode is resolved, ``resolve_prime_movers`` adds up, per prime mover and mode, the input
 power of every pump on it that runs in the mode, and their input torques referred to its shaft, beside
 the power it gives at that speed (its power curve, else its rated power) and the torque that power
@@ -39,13 +41,25 @@ def mode_speed(mover: PrimeMover, mode: Mode | None) -> tuple[str, float]:
     return name, mover.speed(name)
 
 
+def fastest_speed(machine: Machine, sup: Supply) -> tuple[str, float]:
+    """The fastest speed ``sup``'s shared prime mover runs at in any mode that runs a drive on the supply
+    (its default speed when no such mode names another): the supply's mode-independent values (suction
+    line, pump inlet, the flow a variable motor's control may use) are computed there, the pump's worst."""
+    mover = machine.prime_mover(sup.prime_mover)
+    names = {mover.default_speed}
+    for mode in machine.modes:
+        if any(machine.drive(d).supply == sup.id for d, _ in mode.running):
+            names.add(mode_speed(mover, mode)[0])
+    return max(((name, mover.speed(name)) for name in names), key=lambda x: (x[1], x[0] == mover.default_speed))
+
+
 def speed_value(machine: Machine, sup: Supply, mode: Mode | None = None) -> Value | None:
-    """The shared prime mover's speed for ``sup`` in ``mode`` as a traced value; None when the supply
-    has no shared prime mover."""
+    """The shared prime mover's speed for ``sup`` in ``mode`` (None: its fastest, ``fastest_speed``) as a
+    traced value; None when the supply has no shared prime mover."""
     if sup.prime_mover is None:
         return None
     mover = machine.prime_mover(sup.prime_mover)
-    name, n = mode_speed(mover, mode)
+    name, n = mode_speed(mover, mode) if mode is not None else fastest_speed(machine, sup)
     return Value("prime_mover_speed", "Prime mover speed", "n_pm", n, "speed", "",
                  f"prime mover {mover.id} at its '{name}' speed, as entered", (), "")
 
@@ -55,9 +69,9 @@ def mode_base(machine: Machine, sup: Supply, mode: Mode, base: dict, fluid: Flui
     prime mover figures, else computed at the shared prime mover's speed in the mode."""
     if sup.prime_mover is None:
         return base
-    name, _ = mode_speed(machine.prime_mover(sup.prime_mover), mode)
-    if name == mode_speed(machine.prime_mover(sup.prime_mover), None)[0]:
-        return base  # the default speed: the base was computed at it
+    _, n = mode_speed(machine.prime_mover(sup.prime_mover), mode)
+    if n == base["prime_mover_speed"].value:
+        return base  # the base was computed at this speed
     return supply_base(sup, fluid, speed_value(machine, sup, mode))
 
 

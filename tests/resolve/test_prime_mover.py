@@ -143,3 +143,21 @@ def test_a_corner_derating_the_engine_scales_its_whole_curve():
 def test_nominal_curve_trace_has_no_corner_factor():
     x = outcome().results.prime_mover_mode("diesel", "dig")
     assert "k" not in [i.symbol for i in x.values["power_available"].inputs]
+
+
+def test_mode_independent_values_use_the_fastest_speed_a_mode_runs():
+    # a mode naming a speed above rated: the supply's own values (suction, pump inlet) are judged there,
+    # the pump's worst: A at 2400 rpm delivers 45 cm^3 * 2400 rpm = 108 L/min (hand calculation)
+    d = shared_engine()
+    d["prime_movers"]["diesel"]["speeds"]["high"] = "2400 rpm"
+    d["prime_movers"]["diesel"]["power_curve"].append({"speed": "2400 rpm", "power": "74 kW"})
+    d["modes"]["travel_idle"]["prime_mover_speeds"]["diesel"] = "high"
+    r = outcome(d).results
+    assert r.supply_result("front")["pump_delivery"] * 60e3 == pytest.approx(108.0)
+    assert r.supply_mode("front", "dig")["pump_delivery"] * 60e3 == pytest.approx(99.0)  # rated: 45 * 2200
+    assert r.supply_mode("front", "travel_idle")["pump_delivery"] * 60e3 == pytest.approx(108.0)
+
+
+def test_without_a_faster_mode_the_supply_values_sit_at_the_default_speed():
+    r = outcome().results  # modes at rated and idle: rated is the fastest
+    assert r.supply_result("rear")["pump_shaft_speed"] * 60 == pytest.approx(2640)
