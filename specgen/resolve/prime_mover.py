@@ -69,10 +69,10 @@ def mode_base(machine: Machine, sup: Supply, mode: Mode, base: dict, fluid: Flui
     prime mover figures, else computed at the shared prime mover's speed in the mode."""
     if sup.prime_mover is None:
         return base
-    _, n = mode_speed(machine.prime_mover(sup.prime_mover), mode)
-    if n == base["prime_mover_speed"].value:
+    speed = speed_value(machine, sup, mode)
+    if speed == base["prime_mover_speed"]:
         return base  # the base was computed at this speed
-    return supply_base(sup, fluid, speed_value(machine, sup, mode))
+    return supply_base(sup, fluid, speed)
 
 
 def power_available(mover: PrimeMover, name: str, n: float) -> Value:
