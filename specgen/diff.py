@@ -7,10 +7,10 @@ Inputs are compared by physical value: a quantity field (its kind read from the 
 an id present on one side only is added or removed, never paired with another item.
 
 Results are compared over every computed Value of every duty point, supply/mode pair, drive,
-supply, mode and of the fluid, matched by ids; a value counts as moved when it differs by more than ``RESULT_TOLERANCE``
+supply, mode, shared prime mover in each mode and of the fluid, matched by ids; a value counts as moved when it differs by more than ``RESULT_TOLERANCE``
 (relative, with ``ABSOLUTE_FLOOR`` in SI for values at zero).
 
-Checks are matched by id and where they apply (drive, duty point, supply, mode). Severity is
+Checks are matched by id and where they apply (drive, duty point, supply, mode, prime mover). Severity is
 pass < warn < fail; a check that got more severe, or appears at warn or fail, is a regression.
 Regressions come first, worst first.
 
@@ -280,7 +280,7 @@ def diff_results(old: Outcome, new: Outcome) -> tuple[list[tuple[Owner, str]], l
 
 
 def _check_keys(outcome: Outcome) -> dict[tuple, object]:
-    """Checks by (id, drive, duty, supply, mode); a repeat of the same key gets its ordinal."""
+    """Checks by (id, drive, duty, supply, mode, prime mover); a repeat of the same key gets its ordinal."""
     out, seen = {}, {}
     for c in outcome.results.checks:
         base = (c.id, c.drive, c.duty, c.supply, c.mode, c.prime_mover)

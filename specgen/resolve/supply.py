@@ -35,8 +35,8 @@ SRC_SERIES = "series circuit: one flow through every motor, pressure differentia
 def supply_base(sup: Supply, fluid: FluidResult, shared_speed: Value | None = None) -> dict[str, Value]:
     """Prime mover and pump shaft speed, full delivery, suction line: mode-independent for a supply with
     its own prime mover figures. ``shared_speed``: the speed of the shared prime mover the supply names,
-    in one mode or at its default speed (resolve/prime_mover.py), which the pump turns at times its drive
-    ratio."""
+    in one mode or the fastest its modes run (resolve/prime_mover.py), which the pump turns at times its
+    drive ratio."""
     rec = Record()
     p = sup.pump
     n_p = p.shaft_speed
