@@ -133,8 +133,15 @@ def _load(mover: PrimeMover, mode: Mode, parts: list[tuple[Supply, SupplyModeRes
     name, n = mode_speed(mover, mode)
     rec, per_supply = Record(), {}
     for sup, r in parts:
-        t_p = r.values["pump_input_torque"].value
-        mine = {k: r.values[k] for k in ("pump_shaft_speed", "pump_input_power", "pump_input_torque")}
+        mine = {k: r.values[k] for k in ("pump_shaft_speed", "pump_input_power", "pump_input_torque") if k in r.values}
+        if "pump_input_torque" not in mine:  # a supply kind that gives power and speed only
+            n_p, p_in = mine["pump_shaft_speed"].value, mine["pump_input_power"].value
+            mine["pump_input_torque"] = Value(
+                "pump_input_torque", "Pump input torque", "T_p", pump.input_torque(p_in, n_p), "torque",
+                "T_p = P_in / (2*pi*n_p)", "input power over the pump's angular speed",
+                (Input("P_in", "pump input power", p_in, "power"), Input("n_p", "pump shaft speed", n_p, "speed")),
+                SRC_TORQUE)
+        t_p = mine["pump_input_torque"].value
         mine["prime_mover_torque"] = Value(
             "prime_mover_torque", "Torque at the prime mover's shaft", "T_pm", pm_calc.referred_torque(t_p, sup.drive_ratio),
             "torque", "T_pm = T_p * i_pd", "pump input torque referred to the prime mover through the drive ratio",

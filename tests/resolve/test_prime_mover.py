@@ -161,3 +161,13 @@ def test_mode_independent_values_use_the_fastest_speed_a_mode_runs():
 def test_without_a_faster_mode_the_supply_values_sit_at_the_default_speed():
     r = outcome().results  # modes at rated and idle: rated is the fastest
     assert r.supply_result("rear")["pump_shaft_speed"] * 60 == pytest.approx(2640)
+
+
+def test_a_supply_giving_power_and_speed_only_gets_its_torque_from_them():
+    # hand calculation: 30 kW at 2640 rpm = 30000 / (2*pi*44) = 108.51 N*m; at the engine * 1.2 = 130.22 N*m
+    m = outcome().machine
+    r = _fake("rear", "dig", 30e3, 2640 * RPM)
+    del r.values["pump_input_torque"]
+    (x,) = resolve_prime_movers(m, (r,))
+    assert x.per_supply["rear"]["pump_input_torque"].value == pytest.approx(108.515, abs=1e-3)
+    assert x["torque_used"] == pytest.approx(130.218, abs=1e-3)
