@@ -25,6 +25,8 @@ from specgen.intake.model import PowerPoint, PrimeMover
 from specgen.intake.quantities import Builder
 
 DEFAULT_SPEED = "rated"
+# a supply's own prime mover figures, which a shared prime mover gives instead: no corner may move them there
+_OWN_FIGURES = (("prime_mover_power",), ("prime_mover_speed",), ("pump", "shaft_speed"))
 
 
 def build_prime_movers(b: Builder, d: dict) -> tuple[PrimeMover, ...]:
@@ -102,6 +104,15 @@ def check_prime_mover_references(b: Builder, d: dict) -> None:
         if pid not in driven:
             b.fail(("prime_movers", pid), f"prime mover '{pid}' drives no supply; name it from a supply's "
                                           "prime_mover or remove it")
+    shared = {sid: s["prime_mover"] for sid, s in d["supplies"].items() if "prime_mover" in s}
+    for cid, c in (d.get("corners") or {}).items():
+        for how in ("set", "scale"):
+            for key in c.get(how) or {}:
+                parts = key.split(".")
+                if parts[:1] == ["supplies"] and len(parts) > 2 and parts[1] in shared and tuple(parts[2:]) in _OWN_FIGURES:
+                    b.fail(("corners", cid, how, key),
+                           f"supply '{parts[1]}' takes its power and speed from prime mover '{shared[parts[1]]}': "
+                           f"move prime_movers.{shared[parts[1]]}.power or max_speed, or name another speed in a mode")
     for mid, m in d["modes"].items():
         for pid, name in (m.get("prime_mover_speeds") or {}).items():
             here = ("modes", mid, "prime_mover_speeds", pid)

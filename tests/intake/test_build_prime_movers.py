@@ -160,3 +160,18 @@ def test_a_delivered_flow_on_a_prime_mover_is_refused(tmp_path):
     d["supplies"]["rear"]["pump"] = {"delivery": "60 L/min", "overall_efficiency": 0.8}
     (e,) = refused(tmp_path, d)
     assert e["path"] == "supplies.rear.pump.delivery" and "give the pump's displacement" in e["message"]
+
+
+@pytest.mark.parametrize("key", ["supplies.front.prime_mover_speed", "supplies.front.pump.shaft_speed"])
+def test_a_corner_cannot_give_a_shared_supply_its_own_speed(tmp_path, key):
+    # it would be silently outweighed by the prime mover's speed: refused, pointing at the prime mover
+    d = shared_engine()
+    d["corners"] = {"slow": {"set": {key: "900 rpm"}}}
+    errors = refused(tmp_path, d)
+    assert errors[0]["path"] == f"corners.slow.set.{key}" and "prime_movers.diesel" in errors[0]["message"]
+
+
+def test_a_corner_may_still_move_a_shared_supply_pump_efficiency():
+    d = shared_engine()
+    d["corners"] = {"worn": {"scale": {"supplies.front.pump.volumetric_efficiency": "-3 %"}}}
+    assert build(d).supply("front").prime_mover == "diesel"
