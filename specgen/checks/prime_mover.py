@@ -9,9 +9,11 @@ mode's speed, the braking torque it must absorb when the pumps drive it, and its
     prime_mover_overspeed  (max_speed - mode speed) / max_speed, a rating (band 0); when the pumps return
                            more torque than the motoring torque the prime mover cannot hold its speed:
                            (motoring torque - returned) / motoring torque, a fail; returned with no motoring
-                           torque given: a warning. Not shown when neither max_speed is given nor torque
-                           returned.
+                           torque given: a warning. Without max_speed it is shown only in those two cases
+                           (a prime mover that holds its speed cannot overspeed).
 
+The summed torque at the prime mover's shaft against the torque available there, P_avail / (2*pi*n),
+is the same ratio at the same speed: prime_mover_load names both rather than judging it twice.
 Nothing is recomputed here: every number is a value of Results.prime_movers (resolve/prime_mover.py).
 Worked example: 68 kW taken of 75 kW available: (75 - 68) / 75 = 9.3 %, inside the default 10 % band:
 a warning. 240 N*m returned against a 200 N*m motoring torque: (200 - 240) / 200 = -20 %, a fail.
