@@ -7,10 +7,10 @@ Inputs are compared by physical value: a quantity field (its kind read from the 
 an id present on one side only is added or removed, never paired with another item.
 
 Results are compared over every computed Value of every duty point, supply/mode pair, drive,
-supply, mode and of the fluid, matched by ids; a value counts as moved when it differs by more than ``RESULT_TOLERANCE``
+supply, mode, shared prime mover in each mode and of the fluid, matched by ids; a value counts as moved when it differs by more than ``RESULT_TOLERANCE``
 (relative, with ``ABSOLUTE_FLOOR`` in SI for values at zero).
 
-Checks are matched by id and where they apply (drive, duty point, supply, mode). Severity is
+Checks are matched by id and where they apply (drive, duty point, supply, mode, prime mover). Severity is
 pass < warn < fail; a check that got more severe, or appears at warn or fail, is a regression.
 Regressions come first, worst first.
 
@@ -61,6 +61,7 @@ SCOPES = {
     "supply": (("supply",), ("supply",)),
     "mode": (("mode",), ("mode",)),
     "fluid": ((), ()),
+    "prime_mover_mode": (("prime_mover", "mode"), ("prime mover", "mode")),
 }
 
 
@@ -133,7 +134,8 @@ class CheckChange:
 
     @property
     def where_text(self) -> str:
-        names = {"drive": "drive", "duty": "duty point", "supply": "supply", "mode": "mode"}
+        names = {"drive": "drive", "duty": "duty point", "supply": "supply", "mode": "mode",
+                 "prime_mover": "prime mover"}
         return ", ".join(f"{names[k]} {v}" for k, v in self.where.items() if v)
 
     @property
@@ -253,6 +255,7 @@ def _result_items(outcome: Outcome) -> dict[Owner, dict]:
     items.update({Owner("mode", (m.mode,)): m.values for m in getattr(r, "modes", ()) if m.values})
     if r.fluid.values:
         items[Owner("fluid")] = r.fluid.values
+    items.update({Owner("prime_mover_mode", (x.prime_mover, x.mode)): x.values for x in r.prime_movers})
     return items
 
 
@@ -277,10 +280,10 @@ def diff_results(old: Outcome, new: Outcome) -> tuple[list[tuple[Owner, str]], l
 
 
 def _check_keys(outcome: Outcome) -> dict[tuple, object]:
-    """Checks by (id, drive, duty, supply, mode); a repeat of the same key gets its ordinal."""
+    """Checks by (id, drive, duty, supply, mode, prime mover); a repeat of the same key gets its ordinal."""
     out, seen = {}, {}
     for c in outcome.results.checks:
-        base = (c.id, c.drive, c.duty, c.supply, c.mode)
+        base = (c.id, c.drive, c.duty, c.supply, c.mode, c.prime_mover)
         n = seen.get(base, 0)
         seen[base] = n + 1
         out[base + (n,)] = c
@@ -296,7 +299,8 @@ def _record(c_old, c_new, change: str) -> CheckChange:
         message = f"Worst at {new} (was {old}): {message}"
     return CheckChange(
         id=ref.id, title=ref.title,
-        where={"drive": ref.drive, "duty": ref.duty, "supply": ref.supply, "mode": ref.mode},
+        where={"drive": ref.drive, "duty": ref.duty, "supply": ref.supply,
+               **({"prime_mover": ref.prime_mover} if ref.prime_mover else {}), "mode": ref.mode},
         change=change, old_status=c_old.status if c_old else None, new_status=c_new.status if c_new else None,
         kind=ref.kind, old_value=c_old.value if c_old else None, new_value=c_new.value if c_new else None,
         limit=ref.limit, message=message,

@@ -13,7 +13,7 @@ from functools import cached_property
 from specgen.trace import Input, Value
 
 __all__ = ["Check", "Contribution", "CornerResult", "CycleResult", "DriveResult", "DutyResult", "FluidResult",
-           "ModeResult", "Results",
+           "ModeResult", "PrimeMoverModeResult", "Results",
            "SupplyModeResult", "SupplyResult"]
 
 
@@ -45,11 +45,13 @@ class Check:
     margin: float | None = None
     corner: str | None = None  # the operating corner this verdict was found at; None: the nominal point
     cycle: str | None = None  # a duty cycle's id, for the checks judged over a cycle
+    prime_mover: str | None = None  # a shared prime mover's id, for the checks judged on it
 
     @property
     def where(self) -> str:
         parts = [f"{k} {v}" for k, v in (("drive", self.drive), ("duty point", self.duty),
-                                          ("supply", self.supply), ("mode", self.mode),
+                                          ("supply", self.supply), ("prime mover", self.prime_mover),
+                                          ("mode", self.mode),
                                           ("duty cycle", self.cycle)) if v]
         return ", ".join(parts)
 
@@ -142,6 +144,26 @@ class ModeResult(_ValuesByKey):
 
 
 @dataclass(frozen=True)
+class PrimeMoverModeResult(_ValuesByKey):
+    """A shared prime mover in one mode (resolve/prime_mover.py). ``values``: its own (speed, power and
+    torque available, summed power and torque); ``per_supply``: supply id -> {key: Value} for each pump on
+    it that runs in the mode (pump speed, input power, torque at the prime mover's shaft)."""
+
+    prime_mover: str
+    mode: str
+    speed_name: str
+    values: dict[str, Value]
+    per_supply: dict[str, dict[str, Value]] = field(default_factory=dict)
+
+    @property
+    def trace(self) -> dict:
+        """Every value: the pumps' first (supply id, key), then the prime mover's own."""
+        out: dict = {(sid, k): v for sid, vals in self.per_supply.items() for k, v in vals.items()}
+        out.update(self.values)
+        return out
+
+
+@dataclass(frozen=True)
 class FluidResult(_ValuesByKey):
     """Viscosity and density at the operating temperature (no values without a fluid)."""
 
@@ -214,6 +236,10 @@ class Results:
     fluid: FluidResult = field(default_factory=FluidResult)
     corners: tuple[CornerResult, ...] = ()  # each corner's checks; ``checks`` holds each at its worst
     cycles: tuple[CycleResult, ...] = ()
+    prime_movers: tuple[PrimeMoverModeResult, ...] = ()  # each shared prime mover in each mode it runs
+
+    def prime_mover_mode(self, prime_mover: str, mode: str) -> PrimeMoverModeResult | None:
+        return next((r for r in self.prime_movers if r.prime_mover == prime_mover and r.mode == mode), None)
 
     def cycle_result(self, cycle: str) -> CycleResult | None:
         return next((c for c in self.cycles if c.cycle == cycle), None)
@@ -305,6 +331,8 @@ class Results:
         yield self.fluid.values.values()
         for c in self.cycles:
             yield c.values.values()
+        for r in self.prime_movers:
+            yield r.trace.values()
 
     def counts(self) -> dict[str, int]:
         out = dict.fromkeys(SEVERITY, 0)

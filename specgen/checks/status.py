@@ -35,6 +35,12 @@ Each check's margin, and what it is a fraction of:
     reached_speed           load sensing: (flow offered to the drive - flow it needs) / flow it needs, the offer
                             from the pump, priority valve, flow divider and compensators (checks/load_sensing.py)
     prime_mover_power       (prime mover power - pump input power) / prime mover power
+    prime_mover_load        (power available at the mode's speed - summed input power of the pumps on a shared
+                            prime mover) / power available
+    engine_braking          (motoring torque - braking torque the pumps return) / motoring torque; no motoring
+                            torque given: None, worst status warn
+    prime_mover_overspeed   (max speed - mode speed) / max speed, a rating; returned torque above the motoring
+                            torque: (motoring torque - returned) / motoring torque, a fail (checks/prime_mover.py)
     makeup_flow             (flow left for the inlet - overrunning motor's flow) / that motor's flow;
                             worst status warn where a counterbalance or brake valve is declared;
                             through makeup valves also (return pressure - 1 bar) / 1 bar, worst warn

@@ -54,6 +54,7 @@ def build_supply(b: Builder, sid: str, s: dict, fluid: Fluid | None) -> Supply:
                                  sign="nonnegative", default=0.0),
         feeds=s.get("feeds"), ls_valves=s.get("ls_valves"), priority=tuple(s.get("priority", ())),
         flow_divider=divider,
+        prime_mover=s.get("prime_mover"),
     )
 
 
@@ -108,7 +109,7 @@ def _prime_mover_speed(b: Builder, s: dict, path: tuple, pump: Pump) -> tuple[fl
         b.fail(path + ("drive_ratio",), f"drive ratio {ratio!r} must be a finite number above zero")
         ratio = None
     shaft = pump.shaft_speed
-    if "displacement" in s["pump"] and shaft is None and pm_speed is None:
+    if "displacement" in s["pump"] and shaft is None and pm_speed is None and "prime_mover" not in s:
         b.fail(ppath, "give the pump's shaft_speed, or the supply's prime_mover_speed (the pump then turns at "
                       "prime_mover_speed times drive_ratio)")
     if shaft is not None and pm_speed is not None and math.isfinite(shaft) and math.isfinite(pm_speed):

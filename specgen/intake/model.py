@@ -115,6 +115,7 @@ class Supply:
     def strokes_back(self) -> bool:
         """A variable pump that delivers only the flow the drives take (compensated or load-sensing)."""
         return self.pump.control in ("pressure_compensated", "load_sensing")
+    prime_mover: str | None = None  # id of a shared prime mover (machine-level); None: its own figures above
 
     @property
     def compensated(self) -> bool:
@@ -295,6 +296,45 @@ class Mode:
     title: str
     running: tuple[tuple[str, str], ...]  # (drive id, duty point id)
     continuous: bool = False  # runs without end: its heat is checked as today even in a duty cycle
+    prime_mover_speeds: tuple[tuple[str, str], ...] = ()  # (prime mover id, speed name); others at their default
+
+    def speed_name(self, prime_mover_id: str) -> str | None:
+        """The speed name this mode runs ``prime_mover_id`` at; None: the prime mover's default."""
+        return next((name for pm, name in self.prime_mover_speeds if pm == prime_mover_id), None)
+
+
+@dataclass(frozen=True)
+class PowerPoint:
+    """One point of a prime mover's power curve: the power it can give at a speed."""
+
+    speed: float  # rev/s
+    power: float  # W
+
+
+@dataclass(frozen=True)
+class PrimeMover:
+    """An engine or electric motor that drives one or more pumps (supplies name it by id).
+
+    ``speeds``: name -> rev/s in the spec's order; ``default_speed`` the name modes run at unless
+    they name another (the one called ``rated``, else the only one). ``power_curve``: rising speeds;
+    between its points the power is interpolated linearly, never extrapolated (every named speed lies
+    on it, refused at intake otherwise). Without a curve the power is ``power`` at every speed.
+    ``curve_basis``: the rated power as entered beside the curve; an operating corner that moves
+    ``power`` scales the whole curve by power / curve_basis (a derated engine is derated at every speed)."""
+
+    id: str
+    title: str
+    kind: str  # "engine" or "electric_motor"
+    power: float  # W, rated
+    speeds: dict[str, float]
+    default_speed: str
+    power_curve: tuple[PowerPoint, ...] = ()
+    max_speed: float | None = None  # rev/s, overspeed limit
+    motoring_torque: float | None = None  # N*m the prime mover can absorb when the pumps drive it
+    curve_basis: float | None = None  # W
+
+    def speed(self, name: str) -> float:
+        return self.speeds[name]
 
 
 @dataclass(frozen=True)
@@ -374,6 +414,7 @@ class Machine:
     duty_cycles: tuple[DutyCycle, ...] = ()
     ambient_temperature: float | None = None  # K
     max_oil_temperature: Ratio = Ratio(353.15)  # K, carried as a Ratio so "assumed" travels with it
+    prime_movers: tuple[PrimeMover, ...] = ()  # shared by several supplies (Supply.prime_mover)
 
     # Indexes by id, built on first use: the checks look drives and supplies up inside loops over
     # every duty point, and a scan each time would make a 1,000-drive spec quadratic.
@@ -398,3 +439,6 @@ class Machine:
 
     def drive(self, drive_id: str) -> Drive:
         return self._drives_by_id[drive_id]
+
+    def prime_mover(self, prime_mover_id: str) -> PrimeMover:
+        return next(p for p in self.prime_movers if p.id == prime_mover_id)

@@ -18,6 +18,7 @@ from specgen.intake.build_corners import Corner, build_corners
 from specgen.intake.build_drives import build_drive, check_targets
 from specgen.intake.build_cycles import build_cycles, build_max_oil_temperature
 from specgen.intake.build_fluid import build_cooler, build_fluid, build_reservoir
+from specgen.intake.build_prime_movers import build_prime_movers, check_prime_mover_references
 from specgen.intake.build_sizing import build_sizing
 from specgen.intake.build_supplies import build_supply, ls_references
 from specgen.intake.model import Machine, Mode, Ratio, Thresholds
@@ -116,7 +117,8 @@ def build_with_corners(source: Source, directions: Directions,
     series = {s.id for s in supplies if s.circuit == "series"}
     drives = tuple(build_drive(b, did, dr, dr["supply"] in series, fluid) for did, dr in d["drives"].items())
     modes = tuple(Mode(id=mid, title=m.get("title", mid), running=tuple(m["drives"].items()),
-                       continuous=m.get("continuous", False))
+                       continuous=m.get("continuous", False),
+                       prime_mover_speeds=tuple((m.get("prime_mover_speeds") or {}).items()))
                   for mid, m in d["modes"].items())
     t = d.get("thresholds", {})
     thresholds = Thresholds(**{
@@ -131,9 +133,11 @@ def build_with_corners(source: Source, directions: Directions,
         reservoir=build_reservoir(b, d.get("reservoir"), fluid), duty_cycles=build_cycles(b, d.get("duty_cycles")),
         ambient_temperature=b.quantity(d, "ambient_temperature", (), "temperature", sign="any"),
         max_oil_temperature=build_max_oil_temperature(b, d),
+        prime_movers=build_prime_movers(b, d),
     )
     _references(b, d)
     ls_references(b, d)
+    check_prime_mover_references(b, d)
     model = _named_tables(b, d, model)
     model, contradictions = directions(model)
     for path, message in contradictions:

@@ -44,6 +44,8 @@ def key_path(check) -> tuple:
         return ("drives", check.drive)
     if check.supply:
         return ("supplies", check.supply)
+    if check.prime_mover:
+        return ("prime_movers", check.prime_mover)
     if check.mode:
         return ("modes", check.mode)
     return ("machine",)

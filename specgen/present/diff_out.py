@@ -67,7 +67,10 @@ def _raw(value) -> str:
 
 
 def _where(first: dict) -> dict:
-    return {k: first.get(k) for k in ("drive", "duty", "supply", "mode")}
+    out = {k: first.get(k) for k in ("drive", "duty", "supply", "mode")}
+    if first.get("prime_mover"):  # only where a shared prime mover is judged: other diffs keep their shape
+        out["prime_mover"] = first["prime_mover"]
+    return out
 
 
 def _side(s: Side) -> dict:
@@ -198,7 +201,7 @@ def _group_where(g: list[CheckChange]) -> str:
     first = g[0]
     if len(g) == 1:
         return first.where_text or "-"
-    names = {"drive": "drive", "duty": "duty point", "supply": "supply"}
+    names = {"drive": "drive", "duty": "duty point", "supply": "supply", "prime_mover": "prime mover"}
     place = ", ".join(f"{names[k]} {v}" for k, v in first.where.items() if v and k != "mode")
     modes = f"{len(g)} modes: " + ", ".join(str(c.where.get("mode")) for c in g)
     return f"{place}, {modes}" if place else modes

@@ -55,7 +55,8 @@ def _check(c, system: str, with_corner: bool) -> dict:
            "value": _limit(c.value, c.kind, system), "limit": _limit(c.limit, c.kind, system),
            "margin": _margin(c.margin), "message": c.message,
            "where": {"drive": c.drive, "duty": c.duty, "supply": c.supply, "mode": c.mode,
-                     **({"cycle": c.cycle} if c.cycle else {})}}
+                     **({"cycle": c.cycle} if c.cycle else {}),
+                     **({"prime_mover": c.prime_mover} if c.prime_mover else {})}}
     if with_corner:
         out["corner"] = c.corner
     return out
@@ -78,6 +79,13 @@ def _cycle(c, system: str) -> dict:
             "share_above_continuous_pressure": dict(c.above_continuous),
             "oil_temperature_series": [[t, convert(x, "temperature", system)[0]] for t, x in c.series],
             "settled": c.settled, "missing": c.missing}
+
+
+def _prime_mover(x, system: str) -> dict:
+    """A shared prime mover in one mode: its own values and, by supply id, each pump's on it."""
+    return {"prime_mover": x.prime_mover, "mode": x.mode, "speed_name": x.speed_name,
+            "values": {k: _value(v, system) for k, v in x.values.items()},
+            "per_supply": {s: {k: _value(v, system) for k, v in vals.items()} for s, vals in x.per_supply.items()}}
 
 
 def document(o: Outcome, review=None) -> dict:
@@ -122,6 +130,7 @@ def document(o: Outcome, review=None) -> dict:
         "modes": [{"mode": m.mode, "values": {k: _value(v, system) for k, v in m.values.items()}} for m in r.modes],
         "fluid": {k: _value(v, system) for k, v in r.fluid.values.items()},
         **({"duty_cycles": [_cycle(c, system) for c in r.cycles]} if r.cycles else {}),
+        **({"prime_movers": [_prime_mover(x, system) for x in r.prime_movers]} if r.prime_movers else {}),
         "checks": [_check(c, system, bool(r.corners)) for c in r.checks],
         **({"corners": [_corner(k, system) for k in r.corners]} if r.corners else {}),
         "assumed": assumed_list(r, system),

@@ -99,6 +99,22 @@ def cycle_lines(o: Outcome, system: str) -> list[str]:
     return ["", "Duty cycles and oil temperature"] + table(["where", "quantity", "value", "note"], rows)
 
 
+def prime_mover_lines(o: Outcome, system: str) -> list[str]:
+    """Each shared prime mover in each mode: speed, power available, each pump's input power, the sum and
+    the torque at its shaft, one line each (nothing without shared prime movers)."""
+    rows = []
+    for r in o.results.prime_movers:
+        pumps = ", ".join(f"{sid} {format_si(v['pump_input_power'].value, 'power', system)}"
+                          for sid, v in r.per_supply.items())
+        rows.append([r.prime_mover, r.mode, f"{r.speed_name} {format_si(r['prime_mover_speed'], 'speed', system)}",
+                     format_si(r["power_available"], "power", system), pumps,
+                     format_si(r["power_used"], "power", system), format_si(r["torque_used"], "torque", system)])
+    if not rows:
+        return []
+    return ["", "Shared prime movers in each mode"] + table(
+        ["prime mover", "mode", "speed", "P available", "pumps (P in)", "P sum", "T sum"], rows)
+
+
 def budget_lines(o: Outcome, system: str) -> list[str]:
     """Starting, valve and braking values of each duty point, and each drive's values in a series or
     with makeup flow in each mode, one line each."""
@@ -135,6 +151,7 @@ def render(o: Outcome, quiet: bool = False, review=None) -> str:
                 for k, _ in SUPPLY_COLUMNS])
         out += table(["supply", "mode"] + [h for _, h in SUPPLY_COLUMNS], rows)
         out += fluid_sizing_heat_lines(o, system)
+        out += prime_mover_lines(o, system)
         out += cycle_lines(o, system)
         out += budget_lines(o, system)
         out += load_sensing.text_lines(o, system)

@@ -20,6 +20,7 @@ from specgen.resolve.efficiency import duty_efficiencies
 from specgen.resolve.fluid import fluid_values
 from specgen.resolve.lines import line_values
 from specgen.resolve.load import load_values
+from specgen.resolve.prime_mover import mode_base, resolve_prime_movers, speed_value
 from specgen.resolve.supply import mode_heat, resolve_supply_mode, supply_base, supply_summary
 from specgen.resolve.thermal import resolve_cycles
 from specgen.results import DutyResult, FluidResult, Results
@@ -275,7 +276,7 @@ def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup
 def resolve(machine: Machine) -> Results:
     """Compute every drive's duty points, then every supply in every mode (checks come after)."""
     fluid = fluid_values(machine.fluid)
-    bases = {s.id: supply_base(s, fluid) for s in machine.supplies}
+    bases = {s.id: supply_base(s, fluid, speed_value(machine, s)) for s in machine.supplies}
     duties, drive_results = {}, []
     for drive in machine.drives:
         sup = machine.supply(drive.supply)
@@ -295,11 +296,12 @@ def resolve(machine: Machine) -> Results:
     supply_modes = []
     for mode in machine.modes:
         for sup in machine.supplies:
-            r = resolve_supply_mode(machine, sup, mode, duties, bases[sup.id])
+            r = resolve_supply_mode(machine, sup, mode, duties, mode_base(machine, sup, mode, bases[sup.id], fluid))
             if r is not None:
                 supply_modes.append(r)
     supplies = tuple(supply_summary(s, bases[s.id], supply_modes) for s in machine.supplies)
     modes = tuple(m for m in (mode_heat(mode, supply_modes) for mode in machine.modes) if m is not None)
     cycles = resolve_cycles(machine, modes, supply_modes, duties)
     return Results(duties=tuple(duties.values()), supply_modes=tuple(supply_modes), drives=tuple(drive_results),
-                   supplies=supplies, modes=modes, fluid=fluid, cycles=cycles)
+                   supplies=supplies, modes=modes, fluid=fluid, cycles=cycles,
+                   prime_movers=resolve_prime_movers(machine, supply_modes))

@@ -33,13 +33,18 @@ SRC_PARALLEL = "parallel circuit: flows add, the highest pressure demand sets th
 SRC_SERIES = "series circuit: one flow through every motor, pressure differentials add"
 
 
-def supply_base(sup: Supply, fluid: FluidResult) -> dict[str, Value]:
-    """Mode-independent values: prime mover and pump shaft speed, full delivery, suction line."""
+def supply_base(sup: Supply, fluid: FluidResult, shared_speed: Value | None = None) -> dict[str, Value]:
+    """Prime mover and pump shaft speed, full delivery, suction line: mode-independent for a supply with
+    its own prime mover figures. ``shared_speed``: the speed of the shared prime mover the supply names,
+    in one mode or the fastest its modes run (resolve/prime_mover.py), which the pump turns at times its
+    drive ratio."""
     rec = Record()
     p = sup.pump
     n_p = p.shaft_speed
-    if sup.prime_mover_speed is not None:
-        n_pm = rec.put(given("prime_mover_speed", "Prime mover speed", "n_pm", sup.prime_mover_speed, "speed"))
+    if shared_speed is None and sup.prime_mover_speed is not None:
+        shared_speed = given("prime_mover_speed", "Prime mover speed", "n_pm", sup.prime_mover_speed, "speed")
+    if shared_speed is not None:
+        n_pm = rec.put(shared_speed)
         if n_p is None:
             n_p = rec.put(Value("pump_shaft_speed", "Pump shaft speed", "n_p", n_pm * sup.drive_ratio, "speed",
                                 "n_p = n_pm * i_pd", "prime mover speed times the pump drive ratio",
@@ -107,6 +112,8 @@ def resolve_supply_mode(machine: Machine, sup: Supply, mode, duties: dict, base:
                                "the highest pressure a running drive needs at the supply (inlet plus pressure-line loss)",
                                tuple(Input(indexed("p", d), f"{d} at {u}", v.value, "pressure") for d, u, v in needs),
                                SRC_PARALLEL))
+    if sup.prime_mover is not None:  # on a shared prime mover the pump's speed belongs to the mode
+        rec.put(base["pump_shaft_speed"])
     q_pump = rec.put(base["pump_delivery"])
     rec.put(Value("flow_surplus", "Surplus (+) or shortfall (-)", "dq", q_pump - demand, "flow",
                   "dq = q_p - q_sum", "pump delivery less the flow the drives take",

@@ -17,6 +17,7 @@ from specgen.pipeline import Outcome
 from specgen.present.chart_batch import Batch
 from specgen.present.markdown_text import to_html
 from specgen.present.report.chart_data import cycle_chart, drive_charts, margin_charts, supply_charts
+from specgen.present.report.prime_movers import anchor as prime_mover_anchor, prime_mover_sections
 from specgen.present.report.entered import drive_rows, duty_rows, fluid_rows, given_text, supply_rows
 from specgen.present.report.load_sensing import ls_context
 from specgen.present.report.values import STATUS_WORD, show, slug, trace_row
@@ -101,6 +102,7 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
         "fluid_trace": _trace_block("fluid-trace", "Fluid at the working temperature", fluid_values, system, checks)
         if fluid_values else None,
         "modes": _modes(o), "mode_traces": mode_traces, "supplies": supplies, "drives": drives, "cycles": cycles,
+        "prime_movers": prime_mover_sections(o, system, checks),
         "margin_charts": margins, "assumed": _assumed(o, system), "symbols": _symbols(o),
         "manual_items": _manual_items(o, system),
         "signoff": [{"role": label, "name": m.signoff.get(key, "")} for key, label in SIGNOFF_ROLES],
@@ -124,6 +126,8 @@ def _checks(o: Outcome, system: str) -> list[dict]:
 
 
 def _check_target(c: Check) -> str:
+    if c.prime_mover:
+        return prime_mover_anchor(c.prime_mover, c.mode)
     if c.drive and c.duty:
         return f"duty-{slug(c.drive)}-{slug(c.duty)}"
     if c.drive:
@@ -244,7 +248,7 @@ def _symbols(o: Outcome) -> list[dict]:
     parts = [*r.duties, *r.supply_modes,
              *map(r.drive_result, (d.id for d in m.drives)), *map(r.supply_result, (s.id for s in m.supplies)),
              *map(r.mode_result, (md.id for md in m.modes))]
-    groups = [x.trace for x in parts if x is not None] + [r.fluid.trace]
+    groups = [x.trace for x in parts if x is not None] + [r.fluid.trace] + [x.trace for x in r.prime_movers]
     for values in groups:
         for v in values.values():
             seen.setdefault(v.symbol, v.label)
