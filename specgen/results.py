@@ -14,7 +14,7 @@ from specgen.trace import Input, Value
 
 __all__ = ["Check", "Contribution", "CornerResult", "CycleResult", "DriveResult", "DutyResult", "FluidResult",
            "ModeResult", "Results",
-           "SupplyModeResult", "SupplyResult"]
+           "SupplyModeResult", "SupplyResult", "TravelResult"]
 
 
 SEVERITY = ("pass", "warn", "fail")  # least to most severe
@@ -195,6 +195,22 @@ class CycleResult(_ValuesByKey):
     missing: str = ""
 
 
+@dataclass(frozen=True)
+class TravelResult(_ValuesByKey):
+    """The machine as a vehicle (resolve/travel.py): ``values`` the vehicle's own (adhesion limit, effort at
+    the pressure limit, top speed, engine power, corner power) in the order computed; ``per_drive``: drive
+    id -> {key: Value} of each driven drive's share; ``duties``: (drive id, duty id) -> {key: Value} of each
+    travel duty point (ground speed, tractive effort, its limits); ``lines``: (drive id, duty id) -> the
+    envelope line that sets the effort at its speed; ``envelope``: calc.traction.EnvelopePoint rows from
+    standstill to the top speed."""
+
+    values: dict[str, Value]
+    per_drive: dict[str, dict[str, Value]] = field(default_factory=dict)
+    duties: dict[tuple[str, str], dict[str, Value]] = field(default_factory=dict)
+    lines: dict[tuple[str, str], str] = field(default_factory=dict)
+    envelope: tuple = ()
+
+
 # The order assumed values are listed in within one supply, drive or the fluid: the spec's own order.
 ASSUMED_FIELDS = (("pump", "volumetric_efficiency"), ("pump", "overall_efficiency"),
                   ("motor", "efficiency", "volumetric"), ("motor", "efficiency", "hydromechanical"),
@@ -214,6 +230,7 @@ class Results:
     fluid: FluidResult = field(default_factory=FluidResult)
     corners: tuple[CornerResult, ...] = ()  # each corner's checks; ``checks`` holds each at its worst
     cycles: tuple[CycleResult, ...] = ()
+    travel: TravelResult | None = None  # the machine as a vehicle; None without a travel block
 
     def cycle_result(self, cycle: str) -> CycleResult | None:
         return next((c for c in self.cycles if c.cycle == cycle), None)
@@ -305,6 +322,10 @@ class Results:
         yield self.fluid.values.values()
         for c in self.cycles:
             yield c.values.values()
+        if self.travel is not None:
+            yield self.travel.values.values()
+            yield (v for group in (*self.travel.per_drive.values(), *self.travel.duties.values())
+                   for v in group.values())
 
     def counts(self) -> dict[str, int]:
         out = dict.fromkeys(SEVERITY, 0)

@@ -20,6 +20,7 @@ from specgen.intake.build_cycles import build_cycles, build_max_oil_temperature
 from specgen.intake.build_fluid import build_cooler, build_fluid, build_reservoir
 from specgen.intake.build_sizing import build_sizing
 from specgen.intake.build_supplies import build_supply
+from specgen.intake.build_travel import build_travel
 from specgen.intake.model import Machine, Mode, Ratio, Thresholds
 from specgen.intake.quantities import Builder
 from specgen.intake.read import Source, problem
@@ -118,6 +119,7 @@ def build_with_corners(source: Source, directions: Directions,
     modes = tuple(Mode(id=mid, title=m.get("title", mid), running=tuple(m["drives"].items()),
                        continuous=m.get("continuous", False))
                   for mid, m in d["modes"].items())
+    travel, drives = build_travel(b, d.get("travel"), drives, modes)
     t = d.get("thresholds", {})
     thresholds = Thresholds(**{
         k: b.ratio(t, k, ("thresholds",), v, efficiency=False) for k, v in defaults.THRESHOLDS.items()
@@ -130,7 +132,7 @@ def build_with_corners(source: Source, directions: Directions,
         sizing=build_sizing(b, d.get("sizing"), allow_outside_files, drives), cooler=build_cooler(b, d.get("cooler")),
         reservoir=build_reservoir(b, d.get("reservoir"), fluid), duty_cycles=build_cycles(b, d.get("duty_cycles")),
         ambient_temperature=b.quantity(d, "ambient_temperature", (), "temperature", sign="any"),
-        max_oil_temperature=build_max_oil_temperature(b, d),
+        max_oil_temperature=build_max_oil_temperature(b, d), travel=travel,
     )
     _references(b, d)
     model = _named_tables(b, d, model)
