@@ -61,6 +61,9 @@ SCOPES = {
     "supply": (("supply",), ("supply",)),
     "mode": (("mode",), ("mode",)),
     "fluid": ((), ()),
+    "travel": ((), ()),
+    "travel_drive": (("drive",), ("drive",)),
+    "travel_duty_point": (("drive", "duty"), ("drive", "duty point")),
 }
 
 
@@ -253,6 +256,10 @@ def _result_items(outcome: Outcome) -> dict[Owner, dict]:
     items.update({Owner("mode", (m.mode,)): m.values for m in getattr(r, "modes", ()) if m.values})
     if r.fluid.values:
         items[Owner("fluid")] = r.fluid.values
+    if getattr(r, "travel", None) is not None:
+        items[Owner("travel")] = r.travel.values
+        items.update({Owner("travel_drive", (d,)): v for d, v in r.travel.per_drive.items()})
+        items.update({Owner("travel_duty_point", key): v for key, v in r.travel.duties.items()})
     return items
 
 

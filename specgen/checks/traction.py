@@ -93,5 +93,5 @@ def tractive_envelope(machine: Machine, results: Results, fmt: Fmt) -> Iterator[
         yield Check("tractive_envelope", "Effort within the travel envelope", st, f, limit, "force",
                     f"The tractive effort {fmt(f, 'force')} at {fmt(v, 'velocity')} is "
                     f"{against(f, limit, st != 'fail', ('within', 'above'))} the {fmt(limit, 'force')} that "
-                    f"{_LINES[line]} allows there" + {"fail": ".", "warn": f": within {warn:.0%}.", "pass": "."}[st],
+                    f"{_LINES[line]} allows there" + {"fail": ".", "warn": f": under {warn:.0%} in hand.", "pass": "."}[st],
                     drive=drive, duty=duty, margin=margin)

@@ -50,7 +50,7 @@ def _travel(b: Builder, t: dict, drives: tuple[Drive, ...], modes: tuple[Mode, .
         rolling_radius=b.quantity(t, "rolling_radius", HERE, "length"), adhesion=_adhesion(b, t, gear),
         rolling_resistance=b.ratio(t, "rolling_resistance", HERE, 0.0, efficiency=False).value,
         tread=b.quantity(t, "tread", HERE, "length"), contact_length=b.quantity(t, "track_length", HERE, "length"),
-        lateral_resistance=_lateral(b, t), mode=mode)
+        lateral_resistance=_lateral(b, t), mode=mode, title=t.get("title", "Vehicle"))
 
 
 def _adhesion(b: Builder, t: dict, gear: str) -> Ratio:

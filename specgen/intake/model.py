@@ -365,6 +365,7 @@ class Travel:
     contact_length: float | None = None  # m, tracks: each track on the ground
     lateral_resistance: float | None = None  # mu_t, tracks
     mode: str | None = None  # the mode whose prime mover power bounds the envelope; None: the first running a driven drive
+    title: str = "Vehicle"
 
 
 @dataclass(frozen=True)
