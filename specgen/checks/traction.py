@@ -37,7 +37,7 @@ def adhesion(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]:
         f, limit = values["tractive_effort"].value, values["adhesion_limit"].value
         margin = below(f, limit)
         st = status(margin, warn)
-        braking = "braking effort" if "(braking)" in values["tractive_effort"].label else "tractive effort"
+        braking = "tractive effort" if "envelope_effort" in values else "braking effort"  # braking: no envelope
         yield Check("adhesion", "Effort within adhesion", st, f, limit, "force",
                     f"The {braking} {fmt(f, 'force')} is {against(f, limit, st != 'fail', ('below', 'above'))} the "
                     f"adhesion limit {fmt(limit, 'force')}" + {

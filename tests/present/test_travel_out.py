@@ -65,10 +65,3 @@ def test_diff_shows_travel_values_that_moved():
     assert ("travel", "adhesion_limit") in moved and ("travel_duty_point", "adhesion_limit") in moved
     assert ("travel", "relief_effort") not in moved
 
-
-def test_report_has_a_travel_section_with_its_chart():
-    from specgen.fingerprint import Fingerprint
-    from specgen.present import report
-    page = report.render(outcome(carrier()), fp=Fingerprint("0" * 64))
-    assert 'id="travel"' in page and "Tractive effort against ground speed" in page
-    assert "Calculation trace, travel" in page
