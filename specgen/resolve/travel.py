@@ -85,7 +85,7 @@ def resolve_travel(machine: Machine, duties: dict[tuple[str, str], DutyResult], 
         "relief_effort", "Tractive effort at the pressure limit", "F_relief", sum(s[0] for s in shares.values()),
         "force", "F_relief = sum(F_relief,i)", "the driven motors' efforts at their pressure limits added",
         tuple(Input(indexed("F_relief", d), f"drive {d}", s[0], "force") for d, s in shares.items()), SRC_EFFORT))
-    v_full = rec.put(_slowest("full_displacement_speed", "Top speed at full displacement", "v_full",
+    v_full = rec.put(_slowest("full_displacement_speed", "Ground speed the flow reaches at full displacement", "v_full",
                               {d: s[1] for d, s in shares.items()}))
     v_top = rec.put(_slowest("top_speed", "Top travel speed", "v_max", {d: s[2] for d, s in shares.items()}))
     f_adh = rec.put(Value(
@@ -99,9 +99,10 @@ def resolve_travel(machine: Machine, duties: dict[tuple[str, str], DutyResult], 
     f_max = rec.put(Value("max_effort", "Most usable tractive effort", "F_max", min(f_relief, f_adh), "force",
                           "F_max = min(F_relief, F_adh)", "the effort at the pressure limit, capped by adhesion",
                           (Input("F_relief", "effort at the pressure limit", f_relief, "force"),
-                           Input("F_adh", "adhesion limit", f_adh, "force")), SRC_CORNER))
+                           Input("F_adh", "adhesion limit", f_adh, "force")), SRC_ADHESION))
     corner = rec.put(Value("corner_power", "Corner power", "P_corner", traction.corner_power(f_max, v_top), "power",
-                           "P_corner = F_max * v_max", "the most effort times the top speed",
+                           "P_corner = F_max * v_max", "the power the transmission would need to give its most "
+                           "effort at its top speed",
                            (Input("F_max", "most usable effort", f_max, "force"),
                             Input("v_max", "top travel speed", v_top, "velocity")), SRC_CORNER))
     if power is not None and power > 0:
