@@ -201,13 +201,13 @@ class TravelResult(_ValuesByKey):
     the pressure limit, top speed, engine power, corner power) in the order computed; ``per_drive``: drive
     id -> {key: Value} of each driven drive's share; ``duties``: (drive id, duty id) -> {key: Value} of each
     travel duty point (ground speed, tractive effort, its limits); ``lines``: (drive id, duty id) -> the
-    envelope line that sets the effort at its speed; ``envelope``: calc.traction.EnvelopePoint rows from
+    envelope line that sets the effort at its speed (None for a braking duty point); ``envelope``: calc.traction.EnvelopePoint rows from
     standstill to the top speed."""
 
     values: dict[str, Value]
     per_drive: dict[str, dict[str, Value]] = field(default_factory=dict)
     duties: dict[tuple[str, str], dict[str, Value]] = field(default_factory=dict)
-    lines: dict[tuple[str, str], str] = field(default_factory=dict)
+    lines: dict[tuple[str, str], str | None] = field(default_factory=dict)
     envelope: tuple = ()
 
 

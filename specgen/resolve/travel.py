@@ -9,7 +9,7 @@ maximum displacement up to ``v_full = 2*pi*r * q*eta_v/(Vg_max*i)`` and reaches 
 wheels run at one ground speed). The engine's power bounds the effort by ``eta_total * P_engine / v``,
 with ``eta_total`` the lowest chain of pump overall, motor volumetric and hydro-mechanical and gear
 efficiencies among the driven drives; the ground by ``mu * W_driven``. calc/traction.py has the
-relations.
+relations. The motors' constant efficiencies are used (a maker's table is read at the duty points only).
 
 A travel duty point is any duty point of a driven drive: its ground speed is its wheel (sprocket)
 speed times the rolling circumference, its tractive effort the wheel force ``T_L / r`` times the
@@ -230,7 +230,7 @@ def _engine_power(rec: Record, machine: Machine, tr: Travel) -> float | None:
 
 
 def _duty(tr: Travel, load, r: DutyResult, t: traction.Transmission, eta: float, power: float | None,
-          r_in: Input) -> tuple[dict[str, Value], str]:
+          r_in: Input) -> tuple[dict[str, Value], str | None]:
     """A travel duty point: ground speed, tractive effort, adhesion limit and the envelope at its speed."""
     radius, r_use = tr.rolling_radius, r_in
     if isinstance(load, (WheelLoad, TrackTurnLoad)):
@@ -244,11 +244,11 @@ def _duty(tr: Travel, load, r: DutyResult, t: traction.Transmission, eta: float,
                       (Input("n_L", "wheel (sprocket) speed", n_l, "speed"), r_use), SRC_DUTY))
     overrun = r.direction == "overrunning"
     out.put(Value("tractive_effort", "Tractive effort" + (" (braking)" if overrun else ""), "F",
-                      t_l / radius * n_driven, "force", "F = T_L / r * n_driven",
-                      "the wheel (sprocket) force, as if every driven wheel pulled alike",
-                      (Input("T_L", "wheel (sprocket) torque", t_l, "torque"), r_use,
-                       Input("n_driven", "driven drives", n_driven, "number")), SRC_DUTY,
-                      note="the load drives the wheels: braking effort" if overrun else ""))
+                  t_l / radius * n_driven, "force", "F = T_L / r * n_driven",
+                  "the wheel (sprocket) force, as if every driven wheel pulled alike",
+                  (Input("T_L", "wheel (sprocket) torque", t_l, "torque"), r_use,
+                   Input("n_driven", "driven drives", n_driven, "number")), SRC_DUTY,
+                  note="the load drives the wheels: braking effort" if overrun else ""))
     grade = load.grade if isinstance(load, WheelLoad) else 0.0
     out.put(Value("adhesion_limit", "Adhesion limit at this duty point", "F_adh",
                   traction.adhesion_limit(tr.adhesion.value, tr.driven_mass, grade), "force",
@@ -257,15 +257,16 @@ def _duty(tr: Travel, load, r: DutyResult, t: traction.Transmission, eta: float,
                    Input("m_driven", "mass on the driven wheels or tracks", tr.driven_mass, "mass"),
                    Input("g", "standard gravity", STANDARD_GRAVITY, "acceleration"),
                    Input("theta", "grade angle", grade, "angle")), SRC_ADHESION))
+    if overrun:  # the load drives the wheels: the transmission's envelope does not bound it
+        return out.values, None
     effort, line = traction.effort_limit(t, v, None, eta, power)
-    if not overrun:
-        out.put(Value("envelope_effort", "Transmission's tractive effort at this speed", "F_env", effort, "force",
-                      "F_env = min(F_relief(v), eta_total * P_engine / v), 0 above v_max",
-                      "what the pressure limit, the engine's power and the flow allow at this ground speed",
-                      (Input("v", "ground speed", v, "velocity"), Input("F_relief", "effort at the pressure limit",
-                                                                      t.relief_effort, "force"),
-                       Input("v_max", "top travel speed", t.top_speed, "velocity"),
-                       Input("eta_total", "efficiency from engine to ground", eta, "ratio"))
-                      + ((Input("P_engine", "engine power", power, "power"),) if power is not None else ()),
-                      SRC_POWER, note=f"set by the {line}"))
+    out.put(Value("envelope_effort", "Transmission's tractive effort at this speed", "F_env", effort, "force",
+                  "F_env = min(F_relief(v), eta_total * P_engine / v), 0 above v_max",
+                  "what the pressure limit, the engine's power and the flow allow at this ground speed",
+                  (Input("v", "ground speed", v, "velocity"), Input("F_relief", "effort at the pressure limit",
+                                                                  t.relief_effort, "force"),
+                   Input("v_max", "top travel speed", t.top_speed, "velocity"),
+                   Input("eta_total", "efficiency from engine to ground", eta, "ratio"))
+                  + ((Input("P_engine", "engine power", power, "power"),) if power is not None else ()),
+                  SRC_POWER, note=f"set by the {line}"))
     return out.values, line

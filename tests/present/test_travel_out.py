@@ -50,6 +50,14 @@ def test_json_travel_is_valid_and_complete():
     assert first["speed"]["value"] > 0.8121
 
 
+def test_json_braking_duty_point_has_no_limit_line():
+    d = carrier({"turn": {"load": {"track_turn": {"track": "outer", "turn_radius": "4 m", "speed": "0.5 m/s"}}}})
+    doc = json.loads(json_out.render([outcome(d)]))
+    jsonschema.validate(doc, json.loads((SCHEMAS / "check-output.schema.json").read_text()))
+    lines = {(u["drive"], u["duty"]): u["limit_line"] for u in doc["travel"]["duty_points"]}
+    assert lines == {("track_left", "turn"): "relief", ("track_right", "turn"): None}
+
+
 def test_envelope_corners_keep_the_ends_and_each_change():
     env = outcome(carrier()).results.travel.envelope
     shown = corners(env)

@@ -71,7 +71,7 @@ def test_inner_track_braking_has_no_envelope_and_counts_for_adhesion():
     # |F_inner| 11 800 N * 2 = 23 600 N braking; inner track speed 0.5 * 3.2 / 4 = 0.4 m/s
     assert inner["tractive_effort"].value == pytest.approx(23600.0, rel=1e-6)
     assert inner["ground_speed"].value == pytest.approx(0.4)
-    assert "envelope_effort" not in inner
+    assert "envelope_effort" not in inner and tr.lines[("track_right", "turn")] is None
 
 
 def test_driven_mass_and_assumed_adhesion():

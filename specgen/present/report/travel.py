@@ -27,8 +27,7 @@ def travel_context(o: Outcome, system: str, checks: list[dict], fig_n, draw: Bat
     if tr is None:
         return None
     travel = o.machine.travel
-    duties = [{"drive": d, "duty": u, "anchor": f"duty-{slug(d)}-{slug(u)}", "line": tr.lines[(d, u)]
-               if "envelope_effort" in values else "braking",
+    duties = [{"drive": d, "duty": u, "anchor": f"duty-{slug(d)}-{slug(u)}", "line": tr.lines[(d, u)] or "braking",
                "cells": [show(values[k].value, values[k].kind, system) if k in values else "-" for k, _ in DUTY_COLUMNS]}
               for (d, u), values in tr.duties.items()]
     drives = [{"drive": d, "anchor": f"drive-{slug(d)}",
