@@ -62,8 +62,8 @@ def gear_starting_efficiency(drive: Drive) -> Ratio:
 
 def static_load_values(duty: DutyPoint, load_values: dict) -> list[Value]:
     """The load-shaft torque that acts at standstill, for a driving duty point's load model
-    (winch, wheel, belt; zero for a speed-squared load, a wheel load the grade would roll, a belt
-    pushing). Empty without a load model."""
+    (winch, wheel, belt, a track's turn; zero for a speed-squared load, a wheel load the grade would
+    roll, a belt pushing). Empty without a load model."""
     load = duty.load
     if duty.direction == "overrunning" or load is None:
         return []
