@@ -62,6 +62,9 @@ SCOPES = {
     "mode": (("mode",), ("mode",)),
     "fluid": ((), ()),
     "prime_mover_mode": (("prime_mover", "mode"), ("prime mover", "mode")),
+    "travel": ((), ()),
+    "travel_drive": (("drive",), ("drive",)),
+    "travel_duty_point": (("drive", "duty"), ("drive", "duty point")),
 }
 
 
@@ -256,6 +259,10 @@ def _result_items(outcome: Outcome) -> dict[Owner, dict]:
     if r.fluid.values:
         items[Owner("fluid")] = r.fluid.values
     items.update({Owner("prime_mover_mode", (x.prime_mover, x.mode)): x.values for x in r.prime_movers})
+    if getattr(r, "travel", None) is not None:
+        items[Owner("travel")] = r.travel.values
+        items.update({Owner("travel_drive", (d,)): v for d, v in r.travel.per_drive.items()})
+        items.update({Owner("travel_duty_point", key): v for key, v in r.travel.duties.items()})
     return items
 
 

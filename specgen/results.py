@@ -14,7 +14,7 @@ from specgen.trace import Input, Value
 
 __all__ = ["Check", "Contribution", "CornerResult", "CycleResult", "DriveResult", "DutyResult", "FluidResult",
            "ModeResult", "PrimeMoverModeResult", "Results",
-           "SupplyModeResult", "SupplyResult"]
+           "SupplyModeResult", "SupplyResult", "TravelResult"]
 
 
 SEVERITY = ("pass", "warn", "fail")  # least to most severe
@@ -217,6 +217,22 @@ class CycleResult(_ValuesByKey):
     missing: str = ""
 
 
+@dataclass(frozen=True)
+class TravelResult(_ValuesByKey):
+    """The machine as a vehicle (resolve/travel.py): ``values`` the vehicle's own (adhesion limit, effort at
+    the pressure limit, top speed, engine power, corner power) in the order computed; ``per_drive``: drive
+    id -> {key: Value} of each driven drive's share; ``duties``: (drive id, duty id) -> {key: Value} of each
+    travel duty point (ground speed, tractive effort, its limits); ``lines``: (drive id, duty id) -> the
+    envelope line that sets the effort at its speed (None for a braking duty point); ``envelope``: calc.traction.EnvelopePoint rows from
+    standstill to the top speed."""
+
+    values: dict[str, Value]
+    per_drive: dict[str, dict[str, Value]] = field(default_factory=dict)
+    duties: dict[tuple[str, str], dict[str, Value]] = field(default_factory=dict)
+    lines: dict[tuple[str, str], str | None] = field(default_factory=dict)
+    envelope: tuple = ()
+
+
 # The order assumed values are listed in within one supply, drive or the fluid: the spec's own order.
 ASSUMED_FIELDS = (("pump", "volumetric_efficiency"), ("pump", "overall_efficiency"),
                   ("motor", "efficiency", "volumetric"), ("motor", "efficiency", "hydromechanical"),
@@ -240,6 +256,7 @@ class Results:
 
     def prime_mover_mode(self, prime_mover: str, mode: str) -> PrimeMoverModeResult | None:
         return next((r for r in self.prime_movers if r.prime_mover == prime_mover and r.mode == mode), None)
+    travel: TravelResult | None = None  # the machine as a vehicle; None without a travel block
 
     def cycle_result(self, cycle: str) -> CycleResult | None:
         return next((c for c in self.cycles if c.cycle == cycle), None)
@@ -333,6 +350,10 @@ class Results:
             yield c.values.values()
         for r in self.prime_movers:
             yield r.trace.values()
+        if self.travel is not None:
+            yield self.travel.values.values()
+            yield (v for group in (*self.travel.per_drive.values(), *self.travel.duties.values())
+                   for v in group.values())
 
     def counts(self) -> dict[str, int]:
         out = dict.fromkeys(SEVERITY, 0)

@@ -6,7 +6,7 @@ pressure.py, speed.py, flow_power.py, lines_heat.py (lines, heat, oil temperatur
 motors), valves.py (port relief, counterbalance, pump inlet), efficiency.py (duty points against a maker's
 efficiency table), intermittent.py (time above the continuous rating over a duty cycle), load_sensing.py
 (the speed each drive on a load-sensing supply reaches), prime_mover.py (a prime mover shared by several
-pumps: summed load, braking, overspeed).
+pumps: summed load, braking, overspeed), traction.py (adhesion, wheel spin and the travel envelope of the machine as a vehicle).
 To add a check: write a function taking (machine, results, fmt) and yielding Check records with
 their margin, and list it in CHECKS (DEVELOPERS.md has the details).
 """
@@ -26,6 +26,7 @@ from specgen.checks.motors import breakaway, displacement_choice, load_holding
 from specgen.checks.pressure import (port_pressures, pressure_margin, pressure_ratings, series_outlet_pressure,
                                      supply_pressure)
 from specgen.checks.speed import min_displacement_speed, speed_ratings
+from specgen.checks.traction import adhesion, tractive_envelope, wheel_spin
 from specgen.checks.valves import counterbalance_setting, port_relief_braking, pump_inlet_pressure
 from specgen.intake.model import Machine
 from specgen.units import format_si
@@ -39,7 +40,7 @@ CHECKS = [pressure_margin, pressure_ratings, speed_ratings, breakaway, efficienc
           pump_flow, reached_speed, prime_mover_power, prime_mover_load, engine_braking, prime_mover_overspeed,
           supply_pressure, displacement_choice, min_displacement_speed, line_velocity,
           makeup_flow, heat_load, oil_temperature, intermittent_share, series_outlet_pressure, port_relief_braking,
-          counterbalance_setting, pump_inlet_pressure]
+          counterbalance_setting, pump_inlet_pressure, adhesion, tractive_envelope, wheel_spin]
 
 
 def run_checks(machine: Machine, results: Results) -> Results:

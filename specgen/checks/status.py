@@ -62,6 +62,11 @@ Each check's margin, and what it is a fraction of:
                             share, the motor's intermittent_share; warning band 0.10 (checks/intermittent.py)
     efficiency_table        None: inside or outside the maker's grid (fail outside: nothing is extrapolated)
     load_holding            None: a declaration, not a number (pass when a way to hold the load is declared)
+    adhesion                (adhesion limit mu * W_driven * cos(theta) - a travel duty point's tractive or braking
+                            effort) / adhesion limit
+    tractive_envelope       (transmission's effort at the duty point's ground speed - its tractive effort) / that
+                            effort; above the top travel speed: (top speed - ground speed) / top speed
+    wheel_spin              None: informative (effort at the pressure limit against the adhesion limit)
 
 Worked example: relief 250 bar, inlet needs 260 bar: margin (250 - 260)/250 = -0.04, fail.
 Motor at 3300 rpm against a 3000 rpm maximum: (3000 - 3300)/3000 = -0.10, fail.

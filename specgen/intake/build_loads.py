@@ -1,7 +1,8 @@
-"""Build a duty point's load block (winch, wheel, belt or speed-squared) from a schema-valid spec.
+"""Build a duty point's load block (winch, wheel, belt, speed-squared or track turn) from a schema-valid spec.
 
 Quantities become SI floats (N, m, m/s, m/s^2, kg, N*m, rev/s); a grade becomes an angle in rad,
-positive uphill. Which way the load turns the motor (a downhill wheel, a regenerating belt) is
+positive uphill. A track turn takes its vehicle from the travel block (intake/build_travel.py).
+Which way the load turns the motor (a downhill wheel, a regenerating belt, an inner track braking) is
 decided from the load's sign when the spec is resolved, not here.
 """
 
@@ -10,10 +11,10 @@ from __future__ import annotations
 import math
 from dataclasses import replace
 
-from specgen.intake.model import BeltLoad, SpeedSquaredLoad, WheelLoad, WinchLoad
+from specgen.intake.model import BeltLoad, SpeedSquaredLoad, TrackTurnLoad, WheelLoad, WinchLoad
 from specgen.intake.quantities import Builder
 
-LOAD_MODELS = ("winch", "wheel", "belt", "speed_squared")
+LOAD_MODELS = ("winch", "wheel", "belt", "speed_squared", "track_turn")
 
 _GRADE_HINT = "; write the grade as a percentage ('8 %') or an angle ('4 deg')"
 
@@ -99,4 +100,11 @@ def _speed_squared(b: Builder, w: dict, path: tuple) -> SpeedSquaredLoad:
                             speed=b.quantity(w, "speed", path, "speed"))
 
 
-_BUILDERS = {"winch": _winch, "wheel": _wheel, "belt": _belt, "speed_squared": _speed_squared}
+def _track_turn(b: Builder, w: dict, path: tuple) -> TrackTurnLoad:
+    """The turn as written; the vehicle's figures are filled in from the travel block."""
+    return TrackTurnLoad(track=w["track"], speed=b.quantity(w, "speed", path, "velocity", sign="nonnegative"),
+                         turn_radius=b.quantity(w, "turn_radius", path, "length"))
+
+
+_BUILDERS = {"winch": _winch, "wheel": _wheel, "belt": _belt, "speed_squared": _speed_squared,
+             "track_turn": _track_turn}

@@ -41,6 +41,7 @@ THRESHOLDS = {
     "breakaway_margin_warn": 0.10,
     "speed_margin_warn": 0.05,
     "heat_margin_warn": 0.10,
+    "traction_margin_warn": 0.10,
 }
 
 # Mineral hydraulic oil: the typical density above is at 15 degC; an assumed density is carried to
@@ -53,3 +54,10 @@ SIZING_SERIES = "R10"  # ISO 3 series proposals come from when the spec names no
 HEAT_TRANSFER_STILL_AIR = 12.0  # W/(m^2*K), reservoir wall in still air (10-15)
 MAX_OIL_TEMPERATURE = 353.15  # K (80 degC), mineral oil
 MAX_OIL_BASIS = "mineral oil upper limit 80 degC (from memory, common practice)"
+
+# Adhesion coefficient when the travel block leaves it out: the low end of the typical range, so the
+# wheel-slip check is never looser than the ground may be (from memory): rubber tyres 0.3-0.8 (wet or
+# loose ground to dry concrete), steel tracks on firm soil 0.7-0.9.
+ADHESION = {"wheels": 0.3, "tracks": 0.7}
+ADHESION_BASIS = ("low end of the typical adhesion coefficient for {gear} (from memory: tyres 0.3-0.8, "
+                  "steel tracks on firm soil 0.7-0.9); give the figure for the ground the machine works on")

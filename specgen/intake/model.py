@@ -223,6 +223,27 @@ class SpeedSquaredLoad:
 
 
 @dataclass(frozen=True)
+class TrackTurnLoad:
+    """One track of a skid-steered vehicle turning (calc/skid_steer.py): the vehicle's figures come from
+    the spec's travel block, filled in when it is built (intake/build_travel.py)."""
+
+    track: str  # "outer" or "inner" in the turn (a pivot turn: either, both need the same thrust)
+    speed: float  # m/s: the vehicle's centre speed in a steady turn, each track's speed in a pivot turn
+    turn_radius: float | None = None  # m, to the vehicle's centre line; None: a pivot turn
+    vehicle_mass: float = math.nan  # kg, the whole vehicle
+    rolling_resistance: float = math.nan  # f_r
+    lateral_resistance: float = math.nan  # mu_t
+    contact_length: float = math.nan  # m, each track on the ground
+    tread: float = math.nan  # m, centre to centre of the tracks
+    sprocket_radius: float = math.nan  # m, pitch radius
+    model: str = "track_turn"
+
+    @property
+    def pivot(self) -> bool:
+        return self.turn_radius is None
+
+
+@dataclass(frozen=True)
 class Inertia:
     load_inertia: float  # kg*m^2 at the load shaft
     ramp_time: float  # s, from rest to the duty speed (overrunning: from the duty speed to rest)
@@ -238,7 +259,7 @@ class DutyPoint:
     direction: str | None  # "driving" or "overrunning"; as written (None: not given) until the load's
     # sign decides it (resolve/load.py), which every model past validation has done
     starting_torque: float | None
-    load: WinchLoad | WheelLoad | BeltLoad | SpeedSquaredLoad | None = None
+    load: WinchLoad | WheelLoad | BeltLoad | SpeedSquaredLoad | TrackTurnLoad | None = None
     inertia: Inertia | None = None
     displacement: float | None = None  # m^3/rev a variable motor is set to at this duty point
     duration: str = "continuous"  # "continuous", "intermittent" or "peak": the rating step it is checked at
@@ -346,6 +367,7 @@ class Thresholds:
     speed_margin_warn: Ratio = Ratio(0.05)
     heat_margin_warn: Ratio = Ratio(0.10)
     counterbalance_factor: Ratio = Ratio(1.3)  # setting / highest load-induced pressure
+    traction_margin_warn: Ratio = Ratio(0.10)
 
 
 @dataclass(frozen=True)
@@ -395,6 +417,25 @@ class DutyCycle:
 
 
 @dataclass(frozen=True)
+class Travel:
+    """The machine as a vehicle: the drives that drive its wheels or tracks (one motor each) and what the
+    ground and the transmission limit (calc/traction.py, calc/skid_steer.py)."""
+
+    drives: tuple[str, ...]  # driven drive ids, one motor per wheel or sprocket
+    running_gear: str  # "wheels" or "tracks"
+    vehicle_mass: float  # kg
+    driven_mass: float  # kg on the driven wheels or tracks (the whole vehicle unless given)
+    rolling_radius: float  # m, wheel rolling radius or sprocket pitch radius
+    adhesion: Ratio  # mu; assumed (low end of the typical range) when not given
+    rolling_resistance: float  # f_r
+    tread: float | None = None  # m, tracks: centre to centre
+    contact_length: float | None = None  # m, tracks: each track on the ground
+    lateral_resistance: float | None = None  # mu_t, tracks
+    mode: str | None = None  # the mode whose prime mover power bounds the envelope; None: the first running a driven drive
+    title: str = "Vehicle"
+
+
+@dataclass(frozen=True)
 class Machine:
     id: str
     title: str
@@ -415,6 +456,7 @@ class Machine:
     ambient_temperature: float | None = None  # K
     max_oil_temperature: Ratio = Ratio(353.15)  # K, carried as a Ratio so "assumed" travels with it
     prime_movers: tuple[PrimeMover, ...] = ()  # shared by several supplies (Supply.prime_mover)
+    travel: Travel | None = None  # the machine as a vehicle; None: no travel block
 
     # Indexes by id, built on first use: the checks look drives and supplies up inside loops over
     # every duty point, and a scan each time would make a 1,000-drive spec quadratic.

@@ -21,6 +21,7 @@ from specgen.intake.build_fluid import build_cooler, build_fluid, build_reservoi
 from specgen.intake.build_prime_movers import build_prime_movers, check_prime_mover_references
 from specgen.intake.build_sizing import build_sizing
 from specgen.intake.build_supplies import build_supply, ls_references
+from specgen.intake.build_travel import build_travel
 from specgen.intake.model import Machine, Mode, Ratio, Thresholds
 from specgen.intake.quantities import Builder
 from specgen.intake.read import Source, problem
@@ -120,6 +121,7 @@ def build_with_corners(source: Source, directions: Directions,
                        continuous=m.get("continuous", False),
                        prime_mover_speeds=tuple((m.get("prime_mover_speeds") or {}).items()))
                   for mid, m in d["modes"].items())
+    travel, drives = build_travel(b, d.get("travel"), drives, modes)
     t = d.get("thresholds", {})
     thresholds = Thresholds(**{
         k: b.ratio(t, k, ("thresholds",), v, efficiency=False) for k, v in defaults.THRESHOLDS.items()
@@ -133,7 +135,7 @@ def build_with_corners(source: Source, directions: Directions,
         reservoir=build_reservoir(b, d.get("reservoir"), fluid), duty_cycles=build_cycles(b, d.get("duty_cycles")),
         ambient_temperature=b.quantity(d, "ambient_temperature", (), "temperature", sign="any"),
         max_oil_temperature=build_max_oil_temperature(b, d),
-        prime_movers=build_prime_movers(b, d),
+        prime_movers=build_prime_movers(b, d), travel=travel,
     )
     _references(b, d)
     ls_references(b, d)

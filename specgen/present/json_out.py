@@ -9,6 +9,7 @@ import math
 from specgen import __version__
 from specgen.cautions import CAUTIONS
 from specgen.pipeline import Outcome
+from specgen.present.travel_out import travel_document
 from specgen.units import convert
 from specgen.trace import Value
 from specgen.units import KINDS
@@ -131,6 +132,7 @@ def document(o: Outcome, review=None) -> dict:
         "fluid": {k: _value(v, system) for k, v in r.fluid.values.items()},
         **({"duty_cycles": [_cycle(c, system) for c in r.cycles]} if r.cycles else {}),
         **({"prime_movers": [_prime_mover(x, system) for x in r.prime_movers]} if r.prime_movers else {}),
+        **({"travel": travel_document(r.travel, system, _value)} if r.travel else {}),
         "checks": [_check(c, system, bool(r.corners)) for c in r.checks],
         **({"corners": [_corner(k, system) for k in r.corners]} if r.corners else {}),
         "assumed": assumed_list(r, system),

@@ -7,6 +7,7 @@ from specgen.results import RANK
 from specgen.pipeline import Outcome
 from specgen.present import load_sensing
 from specgen.present.json_out import assumed_list
+from specgen.present.travel_out import travel_lines
 from specgen.units import format_si
 from specgen.safe_text import escape
 
@@ -155,6 +156,7 @@ def render(o: Outcome, quiet: bool = False, review=None) -> str:
         out += cycle_lines(o, system)
         out += budget_lines(o, system)
         out += load_sensing.text_lines(o, system)
+        out += travel_lines(o.results.travel, system, table)
         out += [f"Supply {escape(s.id)} feeds no drive in this spec ({escape(s.feeds)}): not computed"
                 for s in o.machine.supplies if s.feeds is not None and not any(
                     d.supply == s.id for d in o.machine.drives)]

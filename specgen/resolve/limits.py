@@ -16,7 +16,7 @@ from dataclasses import replace
 
 from specgen.calc import loads, starting
 from specgen.intake import defaults
-from specgen.intake.model import BeltLoad, Drive, DutyPoint, Ratio, Supply, WheelLoad, WinchLoad
+from specgen.intake.model import BeltLoad, Drive, DutyPoint, Ratio, Supply, TrackTurnLoad, WheelLoad, WinchLoad
 from specgen.resolve.record import eff
 from specgen.trace import Input, Value
 
@@ -62,8 +62,8 @@ def gear_starting_efficiency(drive: Drive) -> Ratio:
 
 def static_load_values(duty: DutyPoint, load_values: dict) -> list[Value]:
     """The load-shaft torque that acts at standstill, for a driving duty point's load model
-    (winch, wheel, belt; zero for a speed-squared load, a wheel load the grade would roll, a belt
-    pushing). Empty without a load model."""
+    (winch, wheel, belt, a track's turn; zero for a speed-squared load, a wheel load the grade would
+    roll, a belt pushing). Empty without a load model."""
     load = duty.load
     if duty.direction == "overrunning" or load is None:
         return []
@@ -95,6 +95,11 @@ def static_load_values(duty: DutyPoint, load_values: dict) -> list[Value]:
                       "T_L,static = F_belt * d_pulley / 2", "the belt pull at rest",
                       (Input("F_belt", "effective belt pull", load.belt_pull, "force"),
                        Input("d_pulley", "pulley diameter", load.pulley_diameter, "length")), SRC_START)]
+    if isinstance(load, TrackTurnLoad) and "load_torque" in load_values:  # the tracks slide sideways from rest too
+        return [Value("static_load_torque", "Load torque at standstill", "T_L,static", load_values["load_torque"].value,
+                      "torque", "T_L,static = T_L", "the turn's sprocket torque, needed from rest as well",
+                      (Input("T_L", "sprocket torque in the turn", load_values["load_torque"].value, "torque"),),
+                      SRC_START)]
     return [none_at_rest]  # a fan or mixer (torque with the square of speed), a belt pushing
 
 

@@ -11,8 +11,8 @@ from __future__ import annotations
 import math
 from dataclasses import replace
 
-from specgen.calc import loads
-from specgen.intake.model import BeltLoad, DutyPoint, Machine, SpeedSquaredLoad, WheelLoad, WinchLoad
+from specgen.calc import loads, skid_steer
+from specgen.intake.model import BeltLoad, DutyPoint, Machine, SpeedSquaredLoad, TrackTurnLoad, WheelLoad, WinchLoad
 from specgen.trace import Input, Value, given
 
 SRC_WINCH = "winch drum torque and rope speed on the working layer (hoisting textbook)"
@@ -20,6 +20,8 @@ SRC_WHEEL = "tractive force on a grade with rolling resistance (vehicle dynamics
 SRC_WHEEL_SHAFT = "ground force times rolling radius, shared by the driven wheels; rolling without slip"
 SRC_BELT = "conveyor drive pulley: effective belt pull times pulley radius (conveyor textbook)"
 SRC_FAN = "fan and pump affinity laws: torque follows the square of speed"
+SRC_SKID = "skid steering, steady turn on level ground (Wong, Theory of Ground Vehicles, skid-steer chapter)"
+SRC_TURN_SPEED = "rigid-body kinematics of a turn without slip"
 
 _OVERRUN_NOTE = "negative: the load drives the motor (overrunning); its magnitude is used"
 
@@ -28,8 +30,9 @@ def decide_directions(machine: Machine) -> tuple[Machine, list[tuple[tuple, str]
     """The machine with every duty point's direction decided, and the duty points whose written
     direction contradicts their load, as (path in the spec, sentence).
 
-    A duty point runs the way the spec wrote it ("driving" when it wrote none), except that a wheel
-    or belt load whose force is negative (downhill, braking, a regenerating belt) drives the motor:
+    A duty point runs the way the spec wrote it ("driving" when it wrote none), except that a wheel,
+    belt or track-turn load whose force is negative (downhill, braking, a regenerating belt, the inner
+    track of a steady skid-steer turn) drives the motor:
     it is overrunning whatever was written, and writing "driving" there is a contradiction; so is
     writing "overrunning" for a wheel or belt load whose force is positive.
 
@@ -67,12 +70,14 @@ def duty_direction(duty: DutyPoint) -> tuple[str, str | None]:
 
 
 def _load_sign(load) -> float | None:
-    """The sign-carrying force of a wheel or belt load (N); None for other loads or unusable inputs."""
+    """The sign-carrying force of a wheel, belt or track-turn load (N); None for other loads or unusable inputs."""
     try:
         if isinstance(load, WheelLoad):
             return loads.tractive_force(load.vehicle_mass, load.rolling_resistance, load.grade, load.acceleration)
         if isinstance(load, BeltLoad):
             return load.belt_pull
+        if isinstance(load, TrackTurnLoad):
+            return track_thrust(load)
     except (ValueError, TypeError):  # a bad input already has its own message
         return None
     return None
@@ -168,4 +173,68 @@ def _speed_squared(s: SpeedSquaredLoad) -> list[Value]:
     ]
 
 
-_MODELS = {WinchLoad: _winch, WheelLoad: _wheel, BeltLoad: _belt, SpeedSquaredLoad: _speed_squared}
+def track_thrust(t: TrackTurnLoad) -> float:
+    """The thrust (N) of the track this load turns; negative for an inner track braking in a steady turn."""
+    thrusts = skid_steer.track_thrusts(skid_steer.vehicle_weight(t.vehicle_mass), t.rolling_resistance,
+                                       t.lateral_resistance, t.contact_length, t.tread, t.pivot)
+    return thrusts.outer if t.track == skid_steer.OUTER else thrusts.inner
+
+
+def _track_turn(t: TrackTurnLoad) -> list[Value]:
+    """Turning resistance moment, both track thrusts, then this track's sprocket torque and speed."""
+    weight = skid_steer.vehicle_weight(t.vehicle_mass)
+    th = skid_steer.track_thrusts(weight, t.rolling_resistance, t.lateral_resistance, t.contact_length, t.tread,
+                                  t.pivot)
+    w_in, b_in = Input("W", "vehicle weight", weight, "force"), Input("B", "tread", t.tread, "length")
+    f_r = Input("f_r", "rolling resistance coefficient", t.rolling_resistance, "ratio")
+    m_in = Input("M_r", "turning resistance moment", th.moment, "torque")
+    pivot = " (pivot turn: both tracks, in opposite directions)" if t.pivot else ""
+    out = [
+        Value("vehicle_weight", "Vehicle weight", "W", weight, "force", "W = m * g", "vehicle mass times gravity",
+              (Input("m", "vehicle mass", t.vehicle_mass, "mass"),
+               Input("g", "standard gravity", loads.STANDARD_GRAVITY, "acceleration")), "CGPM 1901 standard gravity"),
+        Value("turning_moment", "Turning resistance moment", "M_r", th.moment, "torque", "M_r = mu_t * W * L / 4",
+              "lateral resistance of both tracks sliding sideways about the turning centre",
+              (Input("mu_t", "lateral resistance coefficient", t.lateral_resistance, "ratio"), w_in,
+               Input("L", "track contact length", t.contact_length, "length")), SRC_SKID),
+        Value("outer_track_thrust", "Outer track thrust" + pivot, "F_outer", th.outer, "force",
+              "F_outer = f_r * W / 2 + M_r / B", "half the rolling resistance plus the turning moment over the tread",
+              (f_r, w_in, m_in, b_in), SRC_SKID),
+    ]
+    if t.pivot:
+        out.append(Value("inner_track_thrust", "Inner track thrust (pivot turn, in reverse)", "F_inner", th.inner,
+                         "force", "F_inner = f_r * W / 2 + M_r / B",
+                         "in a pivot turn the inner track drives in reverse with the outer track's thrust",
+                         (f_r, w_in, m_in, b_in), SRC_SKID))
+    else:
+        out.append(Value("inner_track_thrust", "Inner track thrust", "F_inner", th.inner, "force",
+                         "F_inner = f_r * W / 2 - M_r / B",
+                         "half the rolling resistance less the turning moment over the tread", (f_r, w_in, m_in, b_in),
+                         SRC_SKID, note="negative: the inner track brakes (it is overrun)" if th.inner < 0 else ""))
+    outer_v, inner_v = skid_steer.track_speeds(t.speed, t.turn_radius, t.tread)
+    mine = t.track == skid_steer.OUTER
+    force = th.outer if mine else th.inner
+    v_track = outer_v if mine else inner_v
+    if t.pivot:
+        out.append(given("track_speed", "Track speed (pivot turn)", "v_track", v_track, "velocity"))
+    else:
+        out.append(Value("track_speed", f"{t.track.capitalize()} track speed", "v_track", v_track, "velocity",
+                         f"v_track = v * (R {'+' if mine else '-'} B/2) / R",
+                         "the vehicle's speed carried out to this track's centre line",
+                         (Input("v", "vehicle speed", t.speed, "velocity"),
+                          Input("R", "turn radius", t.turn_radius, "length"), b_in), SRC_TURN_SPEED))
+    r = Input("r", "sprocket pitch radius", t.sprocket_radius, "length")
+    out += [
+        Value("load_torque", "Sprocket torque", "T_L", abs(force) * t.sprocket_radius, "torque",
+              "T_L = |F_track| * r", f"this ({t.track}) track's thrust times the sprocket pitch radius",
+              (Input("F_track", f"{t.track} track thrust", force, "force"), r), SRC_SKID,
+              note=_OVERRUN_NOTE if force < 0 else ""),
+        Value("load_speed", "Sprocket speed", "n_L", loads.wheel_load(0.0, t.sprocket_radius, 1, v_track).speed,
+              "speed", "n_L = v_track / (2*pi*r)", "track speed over the sprocket's pitch circumference",
+              (Input("v_track", "track speed", v_track, "velocity"), r), SRC_TURN_SPEED),
+    ]
+    return out
+
+
+_MODELS = {WinchLoad: _winch, WheelLoad: _wheel, BeltLoad: _belt, SpeedSquaredLoad: _speed_squared,
+           TrackTurnLoad: _track_turn}

@@ -23,6 +23,7 @@ from specgen.resolve.load import load_values
 from specgen.resolve.prime_mover import mode_base, resolve_prime_movers, speed_value
 from specgen.resolve.supply import mode_heat, resolve_supply_mode, supply_base, supply_summary
 from specgen.resolve.thermal import resolve_cycles
+from specgen.resolve.travel import resolve_travel
 from specgen.results import DutyResult, FluidResult, Results
 from specgen.intake.model import Drive, DutyPoint, Machine, Ratio, Supply
 from specgen.trace import Input, Value, given
@@ -302,6 +303,8 @@ def resolve(machine: Machine) -> Results:
     supplies = tuple(supply_summary(s, bases[s.id], supply_modes) for s in machine.supplies)
     modes = tuple(m for m in (mode_heat(mode, supply_modes) for mode in machine.modes) if m is not None)
     cycles = resolve_cycles(machine, modes, supply_modes, duties)
+    travel = resolve_travel(machine, duties, {r.drive: r for r in drive_results},
+                            {s: base["pump_delivery"].value for s, base in bases.items()}) if machine.travel else None
     return Results(duties=tuple(duties.values()), supply_modes=tuple(supply_modes), drives=tuple(drive_results),
                    supplies=supplies, modes=modes, fluid=fluid, cycles=cycles,
-                   prime_movers=resolve_prime_movers(machine, supply_modes))
+                   prime_movers=resolve_prime_movers(machine, supply_modes), travel=travel)

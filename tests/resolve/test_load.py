@@ -165,3 +165,46 @@ def test_decided_directions_reach_the_model_and_contradictions_name_their_place(
     # without the decision the model keeps what the spec wrote: nothing
     undecided = build(Source("mem.yaml", wheel_spec("-20 %"), b""), lambda m: (m, []))
     assert undecided.drive("hoist").duty("lift").direction is None
+
+
+# ---------------------------------------------------------------- track_turn (skid steering)
+# Hand calculations in tests/vehicles.py (Wong, Theory of Ground Vehicles, skid-steer chapter):
+# W 80 kN, L 2.0 m, B 1.6 m, mu_t 0.6, f_r 0.08, r 0.25 m.
+
+def test_pivot_turn_gives_both_track_motors_the_outer_thrust():
+    from vehicles import carrier
+    o = outcome(carrier())
+    for drive in ("track_left", "track_right"):
+        r = o.results.duty(drive, "pivot")
+        assert r.direction == "driving"
+        assert r["turning_moment"] == pytest.approx(24000.0, rel=1e-6)  # 0.6*80 000*2.0/4
+        assert r["outer_track_thrust"] == pytest.approx(18200.0, rel=1e-6)  # 3200 + 15 000
+        assert r["load_torque"] == pytest.approx(4550.0, rel=1e-6)  # 18 200 * 0.25
+        assert r["load_speed"] == pytest.approx(0.3 / (2 * math.pi * 0.25))
+
+
+def test_steady_turn_inner_track_overruns():
+    from vehicles import carrier
+    o = outcome(carrier({"turn": {"load": {"track_turn": {"track": "outer", "turn_radius": "4 m",
+                                                                 "speed": "0.5 m/s"}}}}))
+    inner = o.results.duty("track_right", "turn")
+    assert inner.direction == "overrunning"
+    assert inner["inner_track_thrust"] == pytest.approx(-11800.0, rel=1e-6)  # 3200 - 15 000: brakes
+    assert inner["load_torque"] == pytest.approx(2950.0, rel=1e-6)  # 11 800 * 0.25
+    assert inner["track_speed"] == pytest.approx(0.4)  # 0.5 * (4 - 0.8) / 4
+    outer = o.results.duty("track_left", "turn")
+    assert outer.direction == "driving" and outer["track_speed"] == pytest.approx(0.6)  # 0.5 * 4.8 / 4
+
+
+def test_writing_driving_for_a_braking_inner_track_is_refused():
+    from vehicles import carrier
+    d = carrier({"turn": {"load": {"track_turn": {"track": "outer", "turn_radius": "4 m", "speed": "0.5 m/s"}}}})
+    d["drives"]["track_right"]["duty_points"]["turn"]["direction"] = "driving"
+    with pytest.raises(SpecError, match="negative torque"):
+        outcome(d)
+
+
+def test_the_turn_is_needed_from_rest_too():
+    from vehicles import carrier
+    r = outcome(carrier()).results.duty("track_left", "pivot")
+    assert r["static_load_torque"] == pytest.approx(4550.0, rel=1e-6)

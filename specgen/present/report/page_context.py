@@ -20,6 +20,7 @@ from specgen.present.report.chart_data import cycle_chart, drive_charts, margin_
 from specgen.present.report.prime_movers import anchor as prime_mover_anchor, prime_mover_sections
 from specgen.present.report.entered import drive_rows, duty_rows, fluid_rows, given_text, supply_rows
 from specgen.present.report.load_sensing import ls_context
+from specgen.present.report.travel import travel_context
 from specgen.present.report.values import STATUS_WORD, show, slug, trace_row
 from specgen.results import Check
 
@@ -81,6 +82,7 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
     mode_traces = [_trace_block(f"mode-{slug(x.mode)}", f"Mode {x.mode}", x.values, system, checks)
                    for x in map(r.mode_result, (md.id for md in m.modes)) if x is not None and x.values]
     cycles = [_cycle_context(o, c, system, checks, fig_n, draw) for c in r.cycles]
+    travel = travel_context(o, system, checks, fig_n, draw)
     fluid_values = r.fluid.values
     if own_batch:
         draw.draw()
@@ -103,7 +105,7 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
         if fluid_values else None,
         "modes": _modes(o), "mode_traces": mode_traces, "supplies": supplies, "drives": drives, "cycles": cycles,
         "prime_movers": prime_mover_sections(o, system, checks),
-        "margin_charts": margins, "assumed": _assumed(o, system), "symbols": _symbols(o),
+        "margin_charts": margins, "travel": travel, "assumed": _assumed(o, system), "symbols": _symbols(o),
         "manual_items": _manual_items(o, system),
         "signoff": [{"role": label, "name": m.signoff.get(key, "")} for key, label in SIGNOFF_ROLES],
         # Recorded reviews of this spec (a list of mappings: name, role, date, verdict, fingerprint,
