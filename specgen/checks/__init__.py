@@ -4,7 +4,8 @@ A check reads computed results and the model's ratings and thresholds; it never 
 relation. One status rule and one order of severity for all of them: checks/status.py. Topics:
 pressure.py, speed.py, flow_power.py, lines_heat.py (lines, heat, oil temperature), motors.py (sizing and
 motors), valves.py (port relief, counterbalance, pump inlet), efficiency.py (duty points against a maker's
-efficiency table), intermittent.py (time above the continuous rating over a duty cycle).
+efficiency table), intermittent.py (time above the continuous rating over a duty cycle), closed_loop.py
+(charge flow, pump stroke and direction of a hydrostatic transmission).
 To add a check: write a function taking (machine, results, fmt) and yielding Check records with
 their margin, and list it in CHECKS (DEVELOPERS.md has the details).
 """
@@ -14,6 +15,7 @@ from __future__ import annotations
 from dataclasses import replace
 from typing import TYPE_CHECKING
 
+from specgen.checks.closed_loop import charge_flow, loop_direction, pump_stroke
 from specgen.checks.efficiency import efficiency_table
 from specgen.checks.flow_power import makeup_flow, prime_mover_power, pump_flow
 from specgen.checks.intermittent import intermittent_share
@@ -34,7 +36,7 @@ if TYPE_CHECKING:
 CHECKS = [pressure_margin, pressure_ratings, speed_ratings, breakaway, efficiency_table, port_pressures, load_holding,
           pump_flow, prime_mover_power, supply_pressure, displacement_choice, min_displacement_speed, line_velocity,
           makeup_flow, heat_load, oil_temperature, intermittent_share, series_outlet_pressure, port_relief_braking,
-          counterbalance_setting, pump_inlet_pressure]
+          counterbalance_setting, pump_inlet_pressure, pump_stroke, charge_flow, loop_direction]
 
 
 def run_checks(machine: Machine, results: Results) -> Results:

@@ -72,6 +72,29 @@ class Pump:
 
 
 @dataclass(frozen=True)
+class Charge:
+    """The charge pump of a closed loop: it turns on the main pump's shaft (through drive) and holds
+    the loop's low side at its relief pressure. Either a displacement or a delivered flow."""
+
+    pressure: float  # Pa, charge relief setting: the low side of the loop
+    displacement: float | None = None  # m^3/rev
+    flow: float | None = None  # m^3/s delivered, when given instead of a displacement
+    volumetric_efficiency: Ratio = Ratio(1.0)
+    overall_efficiency: Ratio = Ratio(1.0)
+
+
+@dataclass(frozen=True)
+class ClosedLoop:
+    """A closed-loop (hydrostatic) transmission: charge circuit, flushing and high-pressure reliefs.
+    A side's relief left as None is the supply's relief_setting."""
+
+    charge: Charge
+    flushing_flow: float = 0.0  # m^3/s taken out of the low side by the flushing valve
+    relief_side_a: float | None = None  # Pa
+    relief_side_b: float | None = None  # Pa
+
+
+@dataclass(frozen=True)
 class Supply:
     id: str
     title: str
@@ -88,6 +111,7 @@ class Supply:
     suction_head: float | None = None  # m, oil level above the pump inlet (negative: below)
     strainer_drop: float = 0.0  # Pa, suction strainer pressure drop
     feeds: str | None = None  # what a supply with no drives in the spec feeds (a charge circuit...)
+    closed_loop: ClosedLoop | None = None  # with circuit "closed_loop"
 
     @property
     def compensated(self) -> bool:
@@ -99,6 +123,16 @@ class Supply:
         if self.compensated and self.pump.compensator_setting is not None:
             return self.pump.compensator_setting
         return self.relief_setting
+
+    @property
+    def high_pressure_reliefs(self) -> tuple[tuple[str, float], ...]:
+        """A closed loop's high-pressure relief per side, ("A", Pa) and ("B", Pa), each the relief
+        setting unless the spec gives it; empty for any other circuit."""
+        if self.closed_loop is None:
+            return ()
+        c = self.closed_loop
+        return (("A", self.relief_setting if c.relief_side_a is None else c.relief_side_a),
+                ("B", self.relief_setting if c.relief_side_b is None else c.relief_side_b))
 
 
 @dataclass(frozen=True)

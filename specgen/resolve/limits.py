@@ -27,6 +27,9 @@ SRC_START = "load acting at standstill referred to the motor through the gear st
 def pressure_limit(drive: Drive, sup: Supply) -> Value:
     """The drive's pressure limit, with the setting that governs named in the trace."""
     settings = [("relief setting", "p_relief", sup.relief_setting, ("supplies", sup.id, "relief_setting"))]
+    if sup.closed_loop is not None and (sup.closed_loop.relief_side_a, sup.closed_loop.relief_side_b) != (None, None):
+        settings = [(f"high-pressure relief, side {side}", f"p_relief,{side}", value, ())
+                    for side, value in sup.high_pressure_reliefs]  # the lower side limits, as either may be high
     if sup.compensated and sup.pump.compensator_setting is not None:
         settings.append(("compensator setting", "p_comp", sup.pump.compensator_setting,
                          ("supplies", sup.id, "pump", "compensator_setting")))
@@ -48,7 +51,8 @@ def governing_setting(limit: Value) -> str:
 def peak_limit(drive: Drive, sup: Supply) -> float:
     """The highest pressure a spike can bring to the motor: the supply's relief setting or a lower
     port relief (a compensator responds too slowly to cap a spike)."""
-    return min(sup.relief_setting, drive.port_relief) if drive.port_relief is not None else sup.relief_setting
+    relief = max((v for _, v in sup.high_pressure_reliefs), default=sup.relief_setting)  # a loop's higher side
+    return min(relief, drive.port_relief) if drive.port_relief is not None else relief
 
 
 def gear_starting_efficiency(drive: Drive) -> Ratio:
