@@ -16,6 +16,7 @@ from specgen.fingerprint import Fingerprint
 from specgen.pipeline import Outcome
 from specgen.present.chart_batch import Batch
 from specgen.present.markdown_text import to_html
+from specgen.present.report.closed_loop import loop_table
 from specgen.present.report.chart_data import cycle_chart, drive_charts, margin_charts, supply_charts
 from specgen.present.report.entered import drive_rows, duty_rows, fluid_rows, given_text, supply_rows
 from specgen.present.report.values import STATUS_WORD, show, slug, trace_row
@@ -187,6 +188,7 @@ def _supply_context(o: Outcome, sup, system: str, checks: list[dict], fig_n, dra
         "drives": [{"id": d.id, "anchor": f"drive-{slug(d.id)}"} for d in m.drives if d.supply == sup.id],
         "charts": supply_charts(o, sup, modes, system, fig_n, draw) if modes else [],
         "traces": traces, "checks": [c for c in checks if c["target"] == f"supply-{slug(sup.id)}"],
+        "closed_loop": loop_table(o, sup, system),
     }
 
 
