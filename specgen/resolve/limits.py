@@ -1,7 +1,7 @@
 """A drive's pressure limit and what a duty point needs to start from rest.
 
-Pressure limit: the lowest of the supply's relief setting, a compensated pump's compensator
-setting and the drive's own port or crossover relief; torque at the limit, breakaway, a variable
+Pressure limit: the lowest of the supply's relief setting (a closed loop's lower high-pressure
+relief side), a compensated pump's compensator setting and the drive's own port or crossover relief; torque at the limit, breakaway, a variable
 motor's envelope and sizing all read this one value.
 Starting: a load that acts at standstill (a hanging winch load, grade and rolling resistance, belt
 pull) must be overcome from rest through the gear stage at its starting efficiency; an explicit
