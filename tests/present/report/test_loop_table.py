@@ -20,3 +20,10 @@ def test_report_table_and_page(tmp_path):
     plain = run_file(write_spec(tmp_path, minimal(), "open.yaml"))
     assert loop_table(plain, plain.machine.supply("main"), "SI") is None
     assert 'id="supply-main-loop"' not in report.render(plain, fp=FIXED)
+
+
+def test_entered_table_names_the_low_side_for_a_loop(tmp_path):
+    o = run_file(write_spec(tmp_path, closed_loop()))
+    page = report.render(o, fp=FIXED)
+    assert "Low side (charge pressure)" in page and "supplies.loop.closed_loop.charge.pressure" in page
+    assert "supplies.loop.return_pressure" not in page
