@@ -119,10 +119,11 @@ class Supply:
 
     @property
     def pressure_limit(self) -> float:
-        """Highest pressure the drives can get: the compensator setting, else the relief setting."""
+        """Highest pressure the drives can get: the compensator setting, else the relief setting (a closed
+        loop: its lower high-pressure relief side, as either side may be the high one)."""
         if self.compensated and self.pump.compensator_setting is not None:
             return self.pump.compensator_setting
-        return self.relief_setting
+        return min((v for _, v in self.high_pressure_reliefs), default=self.relief_setting)
 
     @property
     def high_pressure_reliefs(self) -> tuple[tuple[str, float], ...]:

@@ -182,6 +182,12 @@ def _charge(rec: Record, sup: Supply, n_p: float, np_in: Input, leaks: dict) -> 
                              eff("eta_v,c", "charge pump volumetric efficiency", c.volumetric_efficiency,
                                  _charge_path(sup, "volumetric_efficiency"))), SRC_CHARGE))
     vp, ev = p.displacement, p.volumetric_efficiency
+    if c.displacement is not None:
+        rec.put(Value("charge_displacement_share", "Charge pump displacement over the main pump's", "Vc/Vp",
+                      c.displacement / vp, "ratio", "Vc/Vp = Vc / Vp", "the charge pump's size beside the main pump's",
+                      (Input("Vc", "charge pump displacement", c.displacement, "displacement"),
+                       Input("Vp", "pump maximum displacement", vp, "displacement")), SRC_CHARGE,
+                      note="usually 10-25 % (from memory, common practice)"))
     pump_leak = hst.leakage(vp, n_p, ev.value)
     flush = sup.closed_loop.flushing_flow
     need = rec.put(Value("charge_flow_needed", "Charge flow needed (leakage and flushing)", "q_c,need",

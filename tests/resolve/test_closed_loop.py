@@ -50,6 +50,7 @@ def test_charge_need_counts_pump_and_motor_leakage_and_flushing():
     assert sm.drive_value("wheel", "motor_leakage").value / LPM == pytest.approx(4.5125, rel=1e-9)
     assert sm["charge_flow_needed"] / LPM == pytest.approx(24.5125, rel=1e-9)
     assert sm["charge_relief_flow"] / LPM == pytest.approx(36 - 24.5125, rel=1e-9)
+    assert sm["charge_displacement_share"] == pytest.approx(0.2)  # 20 cm^3 beside 100 cm^3
 
 
 def test_driving_heat_is_power_in_less_shaft_power():
