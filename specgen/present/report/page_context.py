@@ -230,7 +230,10 @@ def _assumed(o: Outcome, system: str) -> list[dict]:
 
 
 def _manual_items(o: Outcome, system: str) -> list[dict]:
-    reliefs = ", ".join(f"{s.id} {show(s.relief_setting, 'pressure', system)}" for s in o.machine.supplies)
+    def relief(s) -> float:  # a closed loop's higher relief side
+        return max((v for _, v in s.high_pressure_reliefs), default=s.relief_setting)
+
+    reliefs = ", ".join(f"{s.id} {show(relief(s), 'pressure', system)}" for s in o.machine.supplies)
     over = ", ".join(f"{r.drive} {r.duty}" for r in o.results.duties if r.direction == "overrunning")
     fill = {"reliefs": f" ({reliefs})" if reliefs else "", "overrun": f" (here: {over})" if over else ""}
     return [{"n": n, "title": t, "text": text.format(**fill)} for n, (t, text) in enumerate(MANUAL_ITEMS, start=1)]
