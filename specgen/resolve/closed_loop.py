@@ -100,10 +100,11 @@ def resolve_loop_mode(machine: Machine, sup: Supply, mode, running, duties: dict
                       SRC_HST, note=note))
     p = sup.pump
     n_p = base["pump_shaft_speed"].value
-    q_full = rec.put(base["pump_delivery"])
+    rec.put(base["pump_delivery"])
     vp_in = Input("Vp", "pump maximum displacement", p.displacement, "displacement")
     np_in = Input("n_p", "pump shaft speed", n_p, "speed")
-    ev_in = eff("eta_v,p", "pump volumetric efficiency", p.volumetric_efficiency, _pump_path(sup, "volumetric_efficiency"))
+    ev_in = eff("eta_v,p", "pump volumetric efficiency", p.volumetric_efficiency,
+                _pump_path(sup, "volumetric_efficiency"))
     q_in = Input("q_loop", "loop flow", q, "flow")
     if overrun:
         x = rec.put(Value("pump_displacement_setting", "Pump displacement setting (stroke)", "x",
@@ -151,7 +152,8 @@ def resolve_loop_mode(machine: Machine, sup: Supply, mode, running, duties: dict
     p_c = _charge(rec, sup, n_p, np_in, leaks)
     p_in = rec.put(Value("pump_input_power", "Pump input power (loop and charge)", "P_in", p_loop + p_c, "power",
                          "P_in = P_loop + P_c", "loop power and charge pump power on one shaft",
-                         (Input("P_loop", "loop power", p_loop, "power"), Input("P_c", "charge pump power", p_c, "power")),
+                         (Input("P_loop", "loop power", p_loop, "power"),
+                          Input("P_c", "charge pump power", p_c, "power")),
                          SRC_HST, note="negative: the load drives the prime mover" if p_loop + p_c < 0 else ""))
     pin_in = Input("P_in", "pump input power", p_in, "power")
     rec.put(Value("pump_input_torque", "Pump input torque", "T_p", pump_calc.input_torque(p_in, n_p), "torque",
@@ -207,7 +209,8 @@ def _charge(rec: Record, sup: Supply, n_p: float, np_in: Input, leaks: dict) -> 
                          hst.charge_power(q_c, c.pressure, c.overall_efficiency.value), "power",
                          "P_c = q_c * p_c / eta_t,c", "charge flow at the charge pressure over the charge pump's "
                          "overall efficiency",
-                         (Input("q_c", "charge flow", q_c, "flow"), Input("p_c", "charge pressure", c.pressure, "pressure"),
+                         (Input("q_c", "charge flow", q_c, "flow"),
+                          Input("p_c", "charge pressure", c.pressure, "pressure"),
                           eff("eta_t,c", "charge pump overall efficiency", c.overall_efficiency,
                               _charge_path(sup, "overall_efficiency"))), SRC_HST))
 
@@ -252,5 +255,6 @@ def _efficiency_and_heat(rec: Record, duties: list, overrun: bool, q: float, dp:
     rec.put(Value("heat_load", "Heat load (cooling duty)", "Q", p_in - shaft + brake, "power",
                   "Q = P_in - P_shaft + P_brake", "power in that does no useful work, plus power absorbed from the "
                   "load; an overrunning load's power goes back to the prime mover, none is throttled in a valve",
-                  (Input("P_in", "pump input power", p_in, "power"), Input("P_shaft", "useful shaft power", shaft, "power"),
+                  (Input("P_in", "pump input power", p_in, "power"),
+                   Input("P_shaft", "useful shaft power", shaft, "power"),
                    Input("P_brake", "absorbed braking power", brake, "power")), SRC_HEAT))

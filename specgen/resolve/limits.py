@@ -1,8 +1,9 @@
 """A drive's pressure limit and what a duty point needs to start from rest.
 
 Pressure limit: the lowest of the supply's relief setting (a closed loop's lower high-pressure
-relief side), a compensated pump's compensator setting and the drive's own port or crossover relief; torque at the limit, breakaway, a variable
-motor's envelope and sizing all read this one value.
+relief side), a compensated pump's compensator setting and the drive's own port or crossover
+relief; torque at the limit, breakaway, a variable motor's envelope and sizing all read this one
+value.
 Starting: a load that acts at standstill (a hanging winch load, grade and rolling resistance, belt
 pull) must be overcome from rest through the gear stage at its starting efficiency; an explicit
 starting torque still wins where larger.
@@ -27,7 +28,8 @@ SRC_START = "load acting at standstill referred to the motor through the gear st
 def pressure_limit(drive: Drive, sup: Supply) -> Value:
     """The drive's pressure limit, with the setting that governs named in the trace."""
     settings = [("relief setting", "p_relief", sup.relief_setting, ("supplies", sup.id, "relief_setting"))]
-    if sup.closed_loop is not None and (sup.closed_loop.relief_side_a, sup.closed_loop.relief_side_b) != (None, None):
+    loop = sup.closed_loop
+    if loop is not None and (loop.relief_side_a, loop.relief_side_b) != (None, None):
         settings = [(f"high-pressure relief, side {side}", f"p_relief,{side}", value, ())
                     for side, value in sup.high_pressure_reliefs]  # the lower side limits, as either may be high
     if sup.compensated and sup.pump.compensator_setting is not None:
