@@ -68,8 +68,8 @@ def resolve_loop_mode(machine: Machine, sup: Supply, mode, running, duties: dict
         r = duties[(d, u)]
         vg, n = r.values["displacement"], r.values["motor_speed"]
         v_in = _motor_volumetric(machine, d, r)
-        vg_in, n_in = Input("Vg", "motor displacement", vg.value, "displacement"), Input("n", "motor speed", n.value,
-                                                                                           "speed")
+        vg_in = Input("Vg", "motor displacement", vg.value, "displacement")
+        n_in = Input("n", "motor speed", n.value, "speed")
         if overrun:
             flows[d] = rec.put(Value("loop_flow", "Flow the motor pumps into the loop", "q_m",
                                      vg.value * n.value * v_in.value, "flow", "q_m = Vg * n * eta_v",
