@@ -2,8 +2,9 @@
 flow and the high-pressure relief of each side, and refuse the open-circuit keys a loop has no use for.
 
 The low side of a closed loop sits at the charge pressure: it takes the place of the return
-pressure on every motor's outlet, so the supply's ``return_pressure`` is set to it here and every
-step after (back pressure, torque at the limit, breakaway) reads it as it reads any return pressure.
+pressure on every motor's outlet, so the model sets the supply's ``return_pressure`` to it
+(model.Supply) and every step after (back pressure, torque at the limit, breakaway) reads it as it
+reads any return pressure.
 
 Quantities become SI floats (Pa, m^3/rev, m^3/s); every refused value is a problem at its field.
 Example: ``charge: {displacement: 20 cm^3, pressure: 25 bar}`` -> Charge(pressure=2.5e6,
@@ -14,7 +15,7 @@ from __future__ import annotations
 
 from dataclasses import replace
 
-from specgen.intake.model import Charge, ClosedLoop, Ratio, Supply
+from specgen.intake.model import Charge, ClosedLoop, Ratio, ReliefSides, Supply
 from specgen.intake.quantities import Builder
 
 # Typical charge pump (an external gear pump on the main pump's through drive), from memory.
@@ -58,9 +59,9 @@ def with_closed_loop(b: Builder, s: dict, path: tuple, sup: Supply) -> Supply:
     rpath = lpath + ("high_pressure_reliefs",)
     loop = ClosedLoop(charge=charge,
                       flushing_flow=b.quantity(block, "flushing_flow", lpath, "flow", sign="nonnegative", default=0.0),
-                      relief_side_a=b.quantity(reliefs, "side_a", rpath, "pressure"),
-                      relief_side_b=b.quantity(reliefs, "side_b", rpath, "pressure"))
-    sup = replace(sup, closed_loop=loop, return_pressure=charge.pressure)
+                      high_pressure_reliefs=ReliefSides(b.quantity(reliefs, "side_a", rpath, "pressure"),
+                                                        b.quantity(reliefs, "side_b", rpath, "pressure")))
+    sup = replace(sup, closed_loop=loop)  # the model sets the return pressure to the charge pressure
     for side, relief in sup.high_pressure_reliefs:
         key = "side_" + side.lower()
         where = rpath + (key,) if key in reliefs else path + ("relief_setting",)

@@ -84,14 +84,20 @@ class Charge:
 
 
 @dataclass(frozen=True)
+class ReliefSides:
+    """A closed loop's high-pressure relief per side (Pa); None: the supply's relief_setting."""
+
+    side_a: float | None = None
+    side_b: float | None = None
+
+
+@dataclass(frozen=True)
 class ClosedLoop:
-    """A closed-loop (hydrostatic) transmission: charge circuit, flushing and high-pressure reliefs.
-    A side's relief left as None is the supply's relief_setting."""
+    """A closed-loop (hydrostatic) transmission: charge circuit, flushing and high-pressure reliefs."""
 
     charge: Charge
     flushing_flow: float = 0.0  # m^3/s taken out of the low side by the flushing valve
-    relief_side_a: float | None = None  # Pa
-    relief_side_b: float | None = None  # Pa
+    high_pressure_reliefs: ReliefSides = ReliefSides()
 
 
 @dataclass(frozen=True)
@@ -113,6 +119,12 @@ class Supply:
     feeds: str | None = None  # what a supply with no drives in the spec feeds (a charge circuit...)
     closed_loop: ClosedLoop | None = None  # with circuit "closed_loop"
 
+    def __post_init__(self) -> None:
+        # A closed loop's low side is its charge pressure: it stands in for the return pressure, and
+        # stays so in every copy (an operating corner that moves the charge pressure moves it too).
+        if self.closed_loop is not None and self.closed_loop.charge.pressure is not None:
+            object.__setattr__(self, "return_pressure", self.closed_loop.charge.pressure)
+
     @property
     def compensated(self) -> bool:
         return self.pump.control == "pressure_compensated"
@@ -131,9 +143,9 @@ class Supply:
         setting unless the spec gives it; empty for any other circuit."""
         if self.closed_loop is None:
             return ()
-        c = self.closed_loop
-        return (("A", self.relief_setting if c.relief_side_a is None else c.relief_side_a),
-                ("B", self.relief_setting if c.relief_side_b is None else c.relief_side_b))
+        sides = self.closed_loop.high_pressure_reliefs
+        return (("A", self.relief_setting if sides.side_a is None else sides.side_a),
+                ("B", self.relief_setting if sides.side_b is None else sides.side_b))
 
 
 @dataclass(frozen=True)

@@ -17,7 +17,7 @@ from dataclasses import replace
 
 from specgen.calc import loads, starting
 from specgen.intake import defaults
-from specgen.intake.model import BeltLoad, Drive, DutyPoint, Ratio, Supply, WheelLoad, WinchLoad
+from specgen.intake.model import BeltLoad, Drive, DutyPoint, Ratio, ReliefSides, Supply, WheelLoad, WinchLoad
 from specgen.resolve.record import eff
 from specgen.trace import Input, Value
 
@@ -29,7 +29,7 @@ def pressure_limit(drive: Drive, sup: Supply) -> Value:
     """The drive's pressure limit, with the setting that governs named in the trace."""
     settings = [("relief setting", "p_relief", sup.relief_setting, ("supplies", sup.id, "relief_setting"))]
     loop = sup.closed_loop
-    if loop is not None and (loop.relief_side_a, loop.relief_side_b) != (None, None):
+    if loop is not None and loop.high_pressure_reliefs != ReliefSides():  # a side of its own
         settings = [(f"high-pressure relief, side {side}", f"p_relief,{side}", value, ())
                     for side, value in sup.high_pressure_reliefs]  # the lower side limits, as either may be high
     if sup.compensated and sup.pump.compensator_setting is not None:

@@ -90,3 +90,34 @@ def test_charge_needs_a_displacement_or_a_flow(tmp_path):
     path = write_spec(tmp_path, data)
     code, out, err = run_cli("check", path)
     assert code == 2 and "Traceback" not in err and "charge" in err
+
+
+def test_a_copy_with_another_charge_pressure_keeps_the_low_side_with_it():
+    from dataclasses import replace
+
+    s = model(closed_loop()).supply("loop")
+    moved = replace(s, closed_loop=replace(s.closed_loop, charge=replace(s.closed_loop.charge, pressure=30e5)))
+    assert moved.return_pressure == 30e5
+
+
+def test_a_corner_on_the_charge_pressure_moves_every_motor_outlet():
+    from helpers import spec_check
+
+    data = closed_loop()
+    # hand calculation: inlet 275 bar + 150 bar charge = 425 bar against the 420 bar relief: fails at the corner
+    data["corners"] = {"high_charge": {"set": {"supplies.loop.closed_loop.charge.pressure": "150 bar"}}}
+    c = spec_check(data, "pressure_margin", drive="wheel", duty="drive")
+    assert c.status == "fail" and c.corner == "high_charge"
+    assert c.margin == pytest.approx((420 - 425) / 420, abs=1e-4)
+
+
+def test_a_corner_scales_a_relief_side_given_in_the_spec():
+    from helpers import spec_check
+
+    data = closed_loop()
+    data["supplies"]["loop"]["closed_loop"]["high_pressure_reliefs"] = {"side_b": "400 bar"}
+    # side B 400 bar -> 320 bar at the corner: inlet 300 bar leaves (320 - 300)/320 = 6.25 %, inside the 10 % band
+    data["corners"] = {"low_b": {"scale": {"supplies.loop.closed_loop.high_pressure_reliefs.side_b": "-20 %"}}}
+    c = spec_check(data, "pressure_margin", drive="wheel", duty="drive")
+    assert c.status == "warn" and c.corner == "low_b"
+    assert c.margin == pytest.approx(20 / 320, abs=1e-4)
