@@ -131,3 +131,31 @@ def markdown_tables(md: str) -> int:
             tables += 1
         i += 1
     return tables
+
+
+def closed_loop() -> dict:
+    """One closed loop small enough to compute by hand: a 100 cm^3 pump at 2000 rpm (eta_v 0.95, eta_t 0.874,
+    so eta_hm 0.92) and a 100 cm^3 motor (eta_v 0.95, eta_hm 0.93) at 902.5 rpm needing 95 L/min, with
+    407.04 N*m giving 275 bar across it above a 25 bar charge pressure (p_H 300 bar); a 20 cm^3 charge pump
+    (eta_v 0.90, eta_t 0.80) gives 36 L/min; flushing 10 L/min. ``drive`` overruns at the same torque."""
+    return copy.deepcopy({
+        "format": 1,
+        "machine": {"id": "loop-rig", "title": "Closed-loop rig", "revision": "A"},
+        "supplies": {"loop": {
+            "circuit": "closed_loop",
+            "pump": {"displacement": "100 cm^3", "shaft_speed": "2000 rpm",
+                     "volumetric_efficiency": 0.95, "overall_efficiency": 0.874},
+            "relief_setting": "420 bar", "prime_mover_power": "60 kW",
+            "closed_loop": {"charge": {"displacement": "20 cm^3", "pressure": "25 bar",
+                                       "volumetric_efficiency": 0.9, "overall_efficiency": 0.8},
+                            "flushing_flow": "10 L/min"}}},
+        "drives": {"wheel": {
+            "supply": "loop", "load_holding": "spring_applied_brake",
+            "motor": {"kind": "axial_piston", "displacement": "100 cm^3",
+                      "efficiency": {"volumetric": 0.95, "hydromechanical": 0.93, "starting": 0.9},
+                      "rating": {"continuous_pressure": "420 bar", "peak_pressure": "450 bar",
+                                 "max_speed": "4000 rpm"}},
+            "duty_points": {"drive": {"torque": "407.04 N*m", "speed": "902.5 rpm"},
+                            "brake": {"torque": "407.04 N*m", "speed": "902.5 rpm", "direction": "overrunning"}}}},
+        "modes": {"driving": {"drives": {"wheel": "drive"}}, "braking": {"drives": {"wheel": "brake"}}},
+    })

@@ -12,7 +12,7 @@ import pytest
 from helpers import ROOT, run_cli
 
 GOLDEN = Path(__file__).resolve().parent / "golden"
-SPECS = ["reed_harvester", "log_deck"]
+SPECS = ["reed_harvester", "log_deck", "yard_loader"]
 
 
 @pytest.mark.parametrize("fmt, ext", [("text", "txt"), ("json", "json")])

@@ -6,7 +6,8 @@ pressure.py, speed.py, flow_power.py, lines_heat.py (lines, heat, oil temperatur
 motors), valves.py (port relief, counterbalance, pump inlet), efficiency.py (duty points against a maker's
 efficiency table), intermittent.py (time above the continuous rating over a duty cycle), load_sensing.py
 (the speed each drive on a load-sensing supply reaches), prime_mover.py (a prime mover shared by several
-pumps: summed load, braking, overspeed), traction.py (adhesion, wheel spin and the travel envelope of the machine as a vehicle).
+pumps: summed load, braking, overspeed), traction.py (adhesion, wheel spin and the travel envelope of the machine as a vehicle),
+closed_loop.py (charge flow, pump stroke and direction of a hydrostatic transmission).
 To add a check: write a function taking (machine, results, fmt) and yielding Check records with
 their margin, and list it in CHECKS (DEVELOPERS.md has the details).
 """
@@ -16,6 +17,7 @@ from __future__ import annotations
 from dataclasses import replace
 from typing import TYPE_CHECKING
 
+from specgen.checks.closed_loop import charge_flow, loop_direction, pump_stroke
 from specgen.checks.efficiency import efficiency_table
 from specgen.checks.flow_power import makeup_flow, prime_mover_power, pump_flow
 from specgen.checks.intermittent import intermittent_share
@@ -40,7 +42,8 @@ CHECKS = [pressure_margin, pressure_ratings, speed_ratings, breakaway, efficienc
           pump_flow, reached_speed, prime_mover_power, prime_mover_load, engine_braking, prime_mover_overspeed,
           supply_pressure, displacement_choice, min_displacement_speed, line_velocity,
           makeup_flow, heat_load, oil_temperature, intermittent_share, series_outlet_pressure, port_relief_braking,
-          counterbalance_setting, pump_inlet_pressure, adhesion, tractive_envelope, wheel_spin]
+          counterbalance_setting, pump_inlet_pressure, adhesion, tractive_envelope, wheel_spin,
+          pump_stroke, charge_flow, loop_direction]
 
 
 def run_checks(machine: Machine, results: Results) -> Results:

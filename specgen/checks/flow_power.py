@@ -23,6 +23,8 @@ def pump_flow(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Check]:
     it can give at the mode's pump pressure (its power limiter may destroke it below full delivery)."""
     warn = machine.thresholds.flow_margin_warn.value
     for r in results.supply_modes:
+        if machine.supply(r.supply).circuit == "closed_loop":
+            continue  # a closed loop's pump strokes to the demand: judged by pump_stroke
         q_p, q = r.values.get("pump_available_flow", r.values["pump_delivery"]).value, r["flow_demand"]
         margin = below(q, q_p)
         st = status(margin, warn)

@@ -60,6 +60,8 @@ Each check's margin, and what it is a fraction of:
                             in series per mode, the downstream drives' starting differentials at the outlet
     intermittent_share      (allowed share - share of the duty cycle above the continuous rating) / allowed
                             share, the motor's intermittent_share; warning band 0.10 (checks/intermittent.py)
+    pump_stroke             (1 - a closed loop's pump displacement setting); charge_flow (charge flow - leakage
+                            and flushing) / that need; loop_direction None (checks/closed_loop.py)
     efficiency_table        None: inside or outside the maker's grid (fail outside: nothing is extrapolated)
     load_holding            None: a declaration, not a number (pass when a way to hold the load is declared)
     adhesion                (adhesion limit mu * W_driven * cos(theta) - a travel duty point's tractive or braking

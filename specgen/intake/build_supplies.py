@@ -10,6 +10,7 @@ from __future__ import annotations
 import math
 
 from specgen.intake import defaults
+from specgen.intake.build_closed_loop import with_closed_loop
 from specgen.intake.build_fluid import NEEDS_FLUID, build_line, viscosity_known
 from specgen.intake.model import FlowDivider, Fluid, Pump, Ratio, Supply
 from specgen.intake.quantities import Builder
@@ -44,7 +45,7 @@ def build_supply(b: Builder, sid: str, s: dict, fluid: Fluid | None) -> Supply:
     suction = build_line(b, s.get("suction_line"), path + ("suction_line",))
     if suction is not None and not viscosity_known(fluid):
         b.fail(path + ("suction_line",), NEEDS_FLUID)
-    return Supply(
+    return with_closed_loop(b, s, path, Supply(
         id=sid, title=s.get("title", sid), pump=pump, relief_setting=relief, return_pressure=ret,
         prime_mover_power=prime_mover_power, prime_mover_speed=pm_speed,
         drive_ratio=float(ratio) if ratio is not None else 1.0, circuit=s.get("circuit", "parallel"),
@@ -55,7 +56,7 @@ def build_supply(b: Builder, sid: str, s: dict, fluid: Fluid | None) -> Supply:
         feeds=s.get("feeds"), ls_valves=s.get("ls_valves"), priority=tuple(s.get("priority", ())),
         flow_divider=divider,
         prime_mover=s.get("prime_mover"),
-    )
+    ))
 
 
 def _pump(b: Builder, p: dict, ppath: tuple) -> Pump:

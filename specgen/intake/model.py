@@ -87,6 +87,35 @@ class FlowDivider:
 
 
 @dataclass(frozen=True)
+class Charge:
+    """The charge pump of a closed loop: it turns on the main pump's shaft (through drive) and holds
+    the loop's low side at its relief pressure. Either a displacement or a delivered flow."""
+
+    pressure: float  # Pa, charge relief setting: the low side of the loop
+    displacement: float | None = None  # m^3/rev
+    flow: float | None = None  # m^3/s delivered, when given instead of a displacement
+    volumetric_efficiency: Ratio = Ratio(1.0)
+    overall_efficiency: Ratio = Ratio(1.0)
+
+
+@dataclass(frozen=True)
+class ReliefSides:
+    """A closed loop's high-pressure relief per side (Pa); None: the supply's relief_setting."""
+
+    side_a: float | None = None
+    side_b: float | None = None
+
+
+@dataclass(frozen=True)
+class ClosedLoop:
+    """A closed-loop (hydrostatic) transmission: charge circuit, flushing and high-pressure reliefs."""
+
+    charge: Charge
+    flushing_flow: float = 0.0  # m^3/s taken out of the low side by the flushing valve
+    high_pressure_reliefs: ReliefSides = ReliefSides()
+
+
+@dataclass(frozen=True)
 class Supply:
     id: str
     title: str
@@ -116,6 +145,13 @@ class Supply:
         """A variable pump that delivers only the flow the drives take (compensated or load-sensing)."""
         return self.pump.control in ("pressure_compensated", "load_sensing")
     prime_mover: str | None = None  # id of a shared prime mover (machine-level); None: its own figures above
+    closed_loop: ClosedLoop | None = None  # with circuit "closed_loop"
+
+    def __post_init__(self) -> None:
+        # A closed loop's low side is its charge pressure: it stands in for the return pressure, and
+        # stays so in every copy (an operating corner that moves the charge pressure moves it too).
+        if self.closed_loop is not None and self.closed_loop.charge.pressure is not None:
+            object.__setattr__(self, "return_pressure", self.closed_loop.charge.pressure)
 
     @property
     def compensated(self) -> bool:
@@ -123,10 +159,21 @@ class Supply:
 
     @property
     def pressure_limit(self) -> float:
-        """Highest pressure the drives can get: the compensator setting, else the relief setting."""
+        """Highest pressure the drives can get: the compensator setting, else the relief setting (a closed
+        loop: its lower high-pressure relief side, as either side may be the high one)."""
         if self.compensated and self.pump.compensator_setting is not None:
             return self.pump.compensator_setting
-        return self.relief_setting
+        return min((v for _, v in self.high_pressure_reliefs), default=self.relief_setting)
+
+    @property
+    def high_pressure_reliefs(self) -> tuple[tuple[str, float], ...]:
+        """A closed loop's high-pressure relief per side, ("A", Pa) and ("B", Pa), each the relief
+        setting unless the spec gives it; empty for any other circuit."""
+        if self.closed_loop is None:
+            return ()
+        sides = self.closed_loop.high_pressure_reliefs
+        return (("A", self.relief_setting if sides.side_a is None else sides.side_a),
+                ("B", self.relief_setting if sides.side_b is None else sides.side_b))
 
 
 @dataclass(frozen=True)

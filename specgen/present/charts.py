@@ -316,18 +316,20 @@ def _supply_line(ax, at: float, text: str) -> None:
                 ha="right", va="bottom", fontsize=7, bbox=_CLEAR)
 
 
-def _mode_axes(title: str, modes: Sequence[str], y_max: float, y_label: str, right_pt: float = 0.0):
-    """Axes for bars by operating mode, ``right_pt`` of room kept at the right for a key."""
+def _mode_axes(title: str, modes: Sequence[str], y_max: float, y_label: str, right_pt: float = 0.0,
+               y_min: float = 0.0):
+    """Axes for bars by operating mode, ``right_pt`` of room kept at the right for a key; ``y_min``
+    below zero for a bar that is negative (a pump driven by its load)."""
     h_pt = HEIGHT_IN * 72
     bottom = TICK + TICK_TEXT + LABEL
-    y_vals, y_labels = ticks(0, y_max, h_pt - bottom - TITLE, 7 * 2)
+    y_vals, y_labels = ticks(y_min, y_max, h_pt - bottom - TITLE, 7 * 2)
     frame = new_frame(HEIGHT_IN, title, left_margin(y_labels), bottom, EDGE + right_pt)
     ax = frame.ax
     ax.grid(axis="x", visible=False)
     ax.set_yticks(y_vals, y_labels)
     ax.set_xticks(list(range(len(modes))), list(modes))
     ax.set_xlim(-0.6, len(modes) - 0.4)
-    ax.set_ylim(0, y_max)
+    ax.set_ylim(y_min, y_max)
     frame.label("operating mode", y_label)
     return ax
 
@@ -374,10 +376,11 @@ def power_by_mode(fig_id: str, title: str, *, unit: str, modes: Sequence[str], p
                   available: float | None, statuses: Sequence[str] | None = None) -> Chart:
     """Pump input power per operating mode as bars, against the prime mover's power (dashed line)."""
     y_max = 1.18 * max(list(power) + [available or 0.0, 1e-9])
+    y_min = 1.18 * min(list(power) + [0.0])  # below zero: the load drives the pump (closed loop, overrunning)
     statuses = list(statuses) if statuses else [None] * len(modes)
 
     def build():
-        ax = _mode_axes(title, modes, y_max, f"pump input power P_in [{unit}]")
+        ax = _mode_axes(title, modes, y_max, f"pump input power P_in [{unit}]", y_min=y_min)
         xs = range(len(modes))
         ax.bar(xs, power, 0.55, color=GREYS[1], hatch="///", edgecolor=INK, linewidth=0.6, zorder=3)
         _bar_tops(ax, xs, power, statuses)

@@ -125,7 +125,8 @@ def document(o: Outcome, review=None) -> dict:
         ],
         "supplies": [
             {"supply": s.supply, "worst_power_mode": s.worst_power_mode, "worst_heat_mode": s.worst_heat_mode,
-             "values": {k: _value(v, system) for k, v in s.values.items()}}
+             "values": {k: _value(v, system) for k, v in s.values.items()},
+             **({"circuit": "closed_loop"} if o.machine.supply(s.supply).closed_loop is not None else {})}
             for s in r.supplies
         ],
         "modes": [{"mode": m.mode, "values": {k: _value(v, system) for k, v in m.values.items()}} for m in r.modes],

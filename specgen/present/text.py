@@ -6,6 +6,7 @@ from specgen.cautions import SHORT
 from specgen.results import RANK
 from specgen.pipeline import Outcome
 from specgen.present import load_sensing
+from specgen.present.closed_loop import LOOP_COLUMNS, cells, duty_points, loop_modes
 from specgen.present.json_out import assumed_list
 from specgen.present.travel_out import travel_lines
 from specgen.units import format_si
@@ -133,6 +134,15 @@ def budget_lines(o: Outcome, system: str) -> list[str]:
                                                                             rows)
 
 
+def closed_loop_lines(o: Outcome, system: str) -> list[str]:
+    """Each closed-loop supply in each mode: stroke, high and low side, flows, pump input, charge, heat."""
+    rows = [[r.supply, r.mode, duty_points(r)] + cells(r, system) for r in loop_modes(o)]
+    if not rows:
+        return []
+    return ["", "Closed-loop transmissions (negative pump input: the load drives the prime mover)"] + table(
+        ["supply", "mode", "duty points"] + [h for _, h, _ in LOOP_COLUMNS], rows)
+
+
 def render(o: Outcome, quiet: bool = False, review=None) -> str:
     """``review``: the spec's review.ReviewStatus, shown under the headline when given."""
     system = o.machine.display_units
@@ -151,6 +161,7 @@ def render(o: Outcome, quiet: bool = False, review=None) -> str:
                 format_si(r.values[k].value, r.values[k].kind, system) if k in r.values else "-"
                 for k, _ in SUPPLY_COLUMNS])
         out += table(["supply", "mode"] + [h for _, h in SUPPLY_COLUMNS], rows)
+        out += closed_loop_lines(o, system)
         out += fluid_sizing_heat_lines(o, system)
         out += prime_mover_lines(o, system)
         out += cycle_lines(o, system)

@@ -1,8 +1,9 @@
 """A drive's pressure limit and what a duty point needs to start from rest.
 
-Pressure limit: the lowest of the supply's relief setting, a compensated pump's compensator
-setting and the drive's own port or crossover relief; torque at the limit, breakaway, a variable
-motor's envelope and sizing all read this one value.
+Pressure limit: the lowest of the supply's relief setting (a closed loop's lower high-pressure
+relief side), a compensated pump's compensator setting and the drive's own port or crossover
+relief; torque at the limit, breakaway, a variable motor's envelope and sizing all read this one
+value.
 Starting: a load that acts at standstill (a hanging winch load, grade and rolling resistance, belt
 pull) must be overcome from rest through the gear stage at its starting efficiency; an explicit
 starting torque still wins where larger.
@@ -16,7 +17,7 @@ from dataclasses import replace
 
 from specgen.calc import loads, starting
 from specgen.intake import defaults
-from specgen.intake.model import BeltLoad, Drive, DutyPoint, Ratio, Supply, TrackTurnLoad, WheelLoad, WinchLoad
+from specgen.intake.model import BeltLoad, Drive, DutyPoint, Ratio, ReliefSides, Supply, TrackTurnLoad, WheelLoad, WinchLoad
 from specgen.resolve.record import eff
 from specgen.trace import Input, Value
 
@@ -27,6 +28,10 @@ SRC_START = "load acting at standstill referred to the motor through the gear st
 def pressure_limit(drive: Drive, sup: Supply) -> Value:
     """The drive's pressure limit, with the setting that governs named in the trace."""
     settings = [("relief setting", "p_relief", sup.relief_setting, ("supplies", sup.id, "relief_setting"))]
+    loop = sup.closed_loop
+    if loop is not None and loop.high_pressure_reliefs != ReliefSides():  # a side of its own
+        settings = [(f"high-pressure relief, side {side}", f"p_relief,{side}", value, ())
+                    for side, value in sup.high_pressure_reliefs]  # the lower side limits, as either may be high
     if sup.compensated and sup.pump.compensator_setting is not None:
         settings.append(("compensator setting", "p_comp", sup.pump.compensator_setting,
                          ("supplies", sup.id, "pump", "compensator_setting")))
@@ -48,7 +53,8 @@ def governing_setting(limit: Value) -> str:
 def peak_limit(drive: Drive, sup: Supply) -> float:
     """The highest pressure a spike can bring to the motor: the supply's relief setting or a lower
     port relief (a compensator responds too slowly to cap a spike)."""
-    return min(sup.relief_setting, drive.port_relief) if drive.port_relief is not None else sup.relief_setting
+    relief = max((v for _, v in sup.high_pressure_reliefs), default=sup.relief_setting)  # a loop's higher side
+    return min(relief, drive.port_relief) if drive.port_relief is not None else relief
 
 
 def gear_starting_efficiency(drive: Drive) -> Ratio:

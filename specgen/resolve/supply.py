@@ -19,6 +19,7 @@ from __future__ import annotations
 
 from specgen.calc import heat, supply as pump
 from specgen.resolve.load_sensing import ls_pump_and_heat
+from specgen.resolve.closed_loop import resolve_loop_mode
 from specgen.resolve.record import Record, eff
 from specgen.resolve.lines import line_values
 from specgen.resolve.series import series_start
@@ -55,7 +56,8 @@ def supply_base(sup: Supply, fluid: FluidResult, shared_speed: Value | None = No
     if p.delivery is not None:
         rec.put(given("pump_delivery", "Pump delivery", "q_p", p.delivery, "flow"))
     else:
-        rec.put(Value("pump_delivery", "Pump delivery" + (" at full stroke" if sup.strokes_back else ""), "q_p",
+        stroked = sup.strokes_back or sup.closed_loop is not None  # a variable pump: its full stroke
+        rec.put(Value("pump_delivery", "Pump delivery" + (" at full stroke" if stroked else ""), "q_p",
                       pump.delivery(p.displacement, n_p, p.volumetric_efficiency.value), "flow",
                       "q_p = Vp * n_p * eta_v,p", "pump displacement times shaft speed times volumetric efficiency",
                       (Input("Vp", "pump displacement", p.displacement, "displacement"),
@@ -79,6 +81,8 @@ def resolve_supply_mode(machine: Machine, sup: Supply, mode, duties: dict, base:
     running = [(d, u) for d, u in mode.running if machine.drive(d).supply == sup.id]
     if not running:
         return None
+    if sup.circuit == "closed_loop":
+        return resolve_loop_mode(machine, sup, mode, running, duties, base)
     if sup.circuit != "parallel":  # in series the spec's order of drives is the order along the line
         running.sort(key=lambda x: machine.drive_position(x[0]))
     contributions = tuple(Contribution(d, u, duties[(d, u)]["flow_demand"]) for d, u in running)

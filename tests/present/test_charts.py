@@ -218,3 +218,14 @@ def test_oil_temperature_chart_labels_axes_limit_and_key_numbers(monkeypatch):
     oil("fig8", y_unit="degF", temperatures=[-4.0, 150.0, 140.0, 171.0, 160.0], steady=150.0,
         limit=Limit("oil limit", "176.0 degF", 176.0, "max"))
     assert_inside(figures)
+
+
+def test_power_chart_reaches_below_zero_for_a_pump_driven_by_its_load():
+    # a closed loop overrunning: -6.7 kW goes back to the engine; the axis must show the bar below zero
+    c = charts.power_by_mode("fig9", "Travel: power", unit="kW", modes=["climb", "descend"], power=[30.2, -16.7],
+                             available=42.0)
+    shown = texts(c.svg)
+    assert "\N{MINUS SIGN}10" in shown  # axis from 1.18 * -16.7 = -19.7 kW: a tick below zero
+    assert "-16.70" in shown and "descend: -16.70 kW" in c.alt
+    positive = charts.power_by_mode("fig9", "Travel: power", unit="kW", modes=["climb"], power=[30.2], available=42.0)
+    assert not any(t.startswith("\N{MINUS SIGN}") for t in texts(positive.svg))

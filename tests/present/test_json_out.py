@@ -10,7 +10,7 @@ from helpers import ROOT, minimal, run_cli, write_spec
 from specgen.checks.status import Check
 
 SCHEMA = json.loads((ROOT / "schemas" / "check-output.schema.json").read_text(encoding="utf-8"))
-DEMOS = ["reed_harvester", "log_deck"]
+DEMOS = ["reed_harvester", "log_deck", "yard_loader"]
 
 
 def validate(doc) -> None:

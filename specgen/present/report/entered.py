@@ -168,7 +168,9 @@ def supply_rows(o: Outcome, sup, system: str) -> list[dict]:
                               ("overall_efficiency", "Pump overall efficiency", p.overall_efficiency)):
         entered.append(_row(label, data, pp + (key,), ratio.value, "ratio", system, ratio.assumed, ratio.basis))
     entered.append(_row("Relief setting", data, sp + ("relief_setting",), sup.relief_setting, "pressure", system))
-    entered.append(_row("Return pressure", data, sp + ("return_pressure",), sup.return_pressure, "pressure", system))
+    low = (("Low side (charge pressure)", ("closed_loop", "charge", "pressure")) if sup.closed_loop is not None
+           else ("Return pressure", ("return_pressure",)))  # a closed loop's low side takes the return's place
+    entered.append(_row(low[0], data, sp + low[1], sup.return_pressure, "pressure", system))
     if sup.prime_mover_power is not None:
         entered.append(_row("Prime mover power", data, sp + ("prime_mover_power",), sup.prime_mover_power,
                             "power", system))

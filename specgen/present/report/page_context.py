@@ -16,6 +16,7 @@ from specgen.fingerprint import Fingerprint
 from specgen.pipeline import Outcome
 from specgen.present.chart_batch import Batch
 from specgen.present.markdown_text import to_html
+from specgen.present.report.closed_loop import loop_table
 from specgen.present.report.chart_data import cycle_chart, drive_charts, margin_charts, supply_charts
 from specgen.present.report.prime_movers import anchor as prime_mover_anchor, prime_mover_sections
 from specgen.present.report.entered import drive_rows, duty_rows, fluid_rows, given_text, supply_rows
@@ -195,6 +196,7 @@ def _supply_context(o: Outcome, sup, system: str, checks: list[dict], fig_n, dra
         "charts": supply_charts(o, sup, modes, system, fig_n, draw) if modes else [],
         "load_sensing": ls_context(o, sup, system, fig_n, draw) if modes else None,
         "traces": traces, "checks": [c for c in checks if c["target"] == f"supply-{slug(sup.id)}"],
+        "closed_loop": loop_table(o, sup, system),
     }
 
 
@@ -236,7 +238,10 @@ def _assumed(o: Outcome, system: str) -> list[dict]:
 
 
 def _manual_items(o: Outcome, system: str) -> list[dict]:
-    reliefs = ", ".join(f"{s.id} {show(s.relief_setting, 'pressure', system)}" for s in o.machine.supplies)
+    def relief(s) -> float:  # a closed loop's higher relief side
+        return max((v for _, v in s.high_pressure_reliefs), default=s.relief_setting)
+
+    reliefs = ", ".join(f"{s.id} {show(relief(s), 'pressure', system)}" for s in o.machine.supplies)
     over = ", ".join(f"{r.drive} {r.duty}" for r in o.results.duties if r.direction == "overrunning")
     fill = {"reliefs": f" ({reliefs})" if reliefs else "", "overrun": f" (here: {over})" if over else ""}
     return [{"n": n, "title": t, "text": text.format(**fill)} for n, (t, text) in enumerate(MANUAL_ITEMS, start=1)]
