@@ -48,7 +48,10 @@ def metering_factor(available: float, margin: float) -> float:
     """
     if available <= 0:
         return 0.0
-    return math.sqrt(min(available / margin, 1.0))
+    ratio = available / margin
+    # p_pump - p_need for the highest drive is the margin itself, up to the rounding of the subtraction:
+    # that must not read as a valve short of its margin
+    return 1.0 if ratio >= 1.0 - 1e-9 else math.sqrt(ratio)
 
 
 def power_limited_flow(power_limit: float, eta_t: float, pressure: float, q_max: float) -> float:

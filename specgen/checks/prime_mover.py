@@ -5,7 +5,8 @@ mode's speed, the braking torque it must absorb when the pumps drive it, and its
                            warning band: thresholds.power_margin_warn, as prime_mover_power
     engine_braking         only when the summed power is negative (the pumps drive the prime mover):
                            (motoring torque - braking torque returned) / motoring torque, same band;
-                           no motoring_torque given: a warning that it cannot be judged (never a silent pass)
+                           no motoring_torque given: a warning that it cannot be judged (never a silent pass);
+                           also a warning for a supply with its own prime_mover_power whose pump is driven
     prime_mover_overspeed  (max_speed - mode speed) / max_speed, a rating (band 0); when the pumps return
                            more torque than the motoring torque the prime mover cannot hold its speed:
                            (motoring torque - returned) / motoring torque, a fail; returned with no motoring
@@ -63,6 +64,16 @@ def engine_braking(machine: Machine, results: Results, fmt: Fmt) -> Iterator[Che
     """When the pumps drive the prime mover (negative summed power), the braking torque it must absorb
     against the motoring torque it can give."""
     warn = machine.thresholds.power_margin_warn.value
+    for r in results.supply_modes:
+        # a supply with its own prime_mover_power has no motoring torque to judge against
+        if "prime_mover_power" in r.values and r["pump_input_power"] < 0:
+            yield Check("engine_braking", "Prime mover absorbs the returned power", status(None, worst="warn"),
+                        -r["pump_input_torque"], None, "torque",
+                        f"The pump drives its prime mover with {fmt(-r['pump_input_torque'], 'torque')} "
+                        f"({fmt(-r['pump_input_power'], 'power')}); a supply's own prime_mover_power carries no "
+                        "motoring torque, so whether it can absorb that cannot be judged: declare the prime mover "
+                        "under prime_movers with its motoring_torque, or brake the load another way.",
+                        supply=r.supply, mode=r.mode)
     for r in results.prime_movers:
         if "torque_returned" not in r.values:
             continue

@@ -97,3 +97,13 @@ def test_flow_divider():
     assert ls.divider_loss(60 * L_MIN, 0.5, 10 * BAR, 150 * BAR, 100 * BAR) == pytest.approx(3500.0)
     # r 0.25, first leg lower at 100 bar gets 15 L/min: 1000 + 50e5 * 2.5e-4 = 2250 W
     assert ls.divider_loss(60 * L_MIN, 0.25, 10 * BAR, 100 * BAR, 150 * BAR) == pytest.approx(2250.0)
+
+
+def test_margin_left_by_rounding_reads_as_full_margin():
+    # p_pump = 152.83965428657848 bar + 20 bar leaves 19.999999999997 bar after the subtraction in
+    # floating point; the valve section has its whole margin (hand calculation: p_pump - p_need = dp_LS).
+    p_need = 152.83965428657848e5
+    p_pump = p_need + 20e5
+    assert ls.metering_factor(p_pump - p_need, 20e5) == 1.0
+    # a real shortfall still meters: 5 bar of 20 -> sqrt(0.25) = 0.5 (orifice law, textbook)
+    assert ls.metering_factor(5e5, 20e5) == 0.5

@@ -85,3 +85,14 @@ def test_motors_of_one_loop_in_both_directions_fail():
 
 def test_motors_of_one_loop_in_one_direction_give_no_direction_check():
     assert spec_checks(_two_motors("driving"), "loop_direction") == []
+
+
+def test_a_driven_pump_on_its_own_prime_mover_warns_that_braking_cannot_be_judged():
+    # The rig's overrunning duty point returns power through the pump (primer section 15: the pump motors
+    # the prime mover). A supply's own prime_mover_power carries no motoring torque: never a silent pass.
+    c = spec_check(closed_loop(), "engine_braking", supply="loop", mode="braking")
+    assert c.status == "warn" and c.value > 0 and "cannot be judged" in c.message
+    p = spec_check(closed_loop(), "prime_mover_power", supply="loop", mode="braking")
+    assert p.value < 0 and "driven, not loaded" in p.message
+    # driving, the pump takes power: no braking check in that mode
+    assert spec_checks(closed_loop(), "engine_braking", mode="driving") == []
