@@ -37,8 +37,16 @@ def environment():
     from markupsafe import Markup
 
     env.filters["css_string"] = css_string
+    env.filters["dotted"] = dotted
     env.globals["Markup"] = Markup  # for the charts' SVG, which charts.py builds and escapes
     return env
+
+
+def dotted(text: str):
+    """A key path that may break after each dot and nowhere else: "drives.<wbr>winch.<wbr>motor"."""
+    from markupsafe import Markup, escape
+
+    return Markup(str(escape(text)).replace(".", ".<wbr>"))
 
 
 def css_string(text: str):

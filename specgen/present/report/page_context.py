@@ -16,9 +16,11 @@ from specgen.fingerprint import Fingerprint
 from specgen.pipeline import Outcome
 from specgen.present.chart_batch import Batch
 from specgen.present.markdown_text import to_html
-from specgen.present.report.chart_data import cycle_chart, drive_charts, margin_charts, supply_charts
+from specgen.present.report.chart_data import (MARGIN_ROWS_PER_CHART, cycle_chart, drive_charts, margin_charts,
+                                                margin_rows, supply_charts)
 from specgen.present.report.entered import drive_rows, duty_rows, fluid_rows, given_text, supply_rows
-from specgen.present.report.values import STATUS_WORD, show, slug, trace_row
+from specgen.present.report.grouped import Case, by_source, grouped, number_relations
+from specgen.present.report.values import STATUS_WORD, show, slug, trace_row, typeset
 from specgen.results import Check
 
 
@@ -76,20 +78,27 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
     margins = margin_charts(o, fig_n, draw)
     supplies = [_supply_context(o, sup, system, checks, fig_n, draw) for sup in m.supplies]
     drives = [_drive_context(o, d, system, checks, fig_n, draw) for d in m.drives]
-    mode_traces = [_trace_block(f"mode-{slug(x.mode)}", f"Mode {x.mode}", x.values, system, checks)
-                   for x in map(r.mode_result, (md.id for md in m.modes)) if x is not None and x.values]
+    mode_cases = [Case(x.mode, f"mode-{slug(x.mode)}", x.values)
+                  for x in map(r.mode_result, (md.id for md in m.modes)) if x is not None and x.values]
+    mode_traces = [_group("modes-all", "All supplies, by operating mode", mode_cases, system, checks)] \
+        if mode_cases else []
     cycles = [_cycle_context(o, c, system, checks, fig_n, draw) for c in r.cycles]
     fluid_values = r.fluid.values
     if own_batch:
         draw.draw()
     fp_footer = f"{m.title[:80]} - rev {m.revision} - spec sha256 {fp.short}"
+    fluid_trace = _trace_block("fluid-trace", "Fluid at the working temperature", fluid_values, system, checks) \
+        if fluid_values else None
+    blocks = ([fluid_trace] if fluid_trace else []) + mode_traces + [c["trace"] for c in cycles] + \
+        [t for s in supplies for t in s["traces"]] + [t for d in drives for t in d["traces"]]
+    relations = number_relations(blocks)
     return {
         "machine": {"id": m.id, "title": m.title, "revision": m.revision, "units": system,
                     "page_size": m.page_size if m.page_size in ("A4", "Letter") else "A4"},
         "spec_file": o.source.name, "fingerprint": fp, "version": __version__, "date": date,
         "footer": fp_footer,
         "verdict": r.verdict, "verdict_word": STATUS_WORD[r.verdict], "counts": r.counts(),
-        "problems": problems, "checks": checks,
+        "problems": problems, "checks": checks, "passing_groups": _passing_groups(checks),
         "corners": [{"id": k.id, "title": k.title, "modes": ", ".join(k.modes),
                      "moves": "; ".join(f"{path} {value}" for path, value in k.overrides),
                      "basis": k.basis if k.assumed else "", "verdict": k.verdict,
@@ -97,10 +106,10 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
         "cautions": [{"title": t, "text": x} for t, x in CAUTIONS],
         "description_html": to_html(m.description),
         "fluid": fluid_rows(o, system),
-        "fluid_trace": _trace_block("fluid-trace", "Fluid at the working temperature", fluid_values, system, checks)
-        if fluid_values else None,
+        "fluid_trace": fluid_trace, "relations": relations, "relation_sources": by_source(relations),
         "modes": _modes(o), "mode_traces": mode_traces, "supplies": supplies, "drives": drives, "cycles": cycles,
-        "margin_charts": margins, "assumed": _assumed(o, system), "symbols": _symbols(o),
+        "margin_charts": margins, "margin_total": len(margin_rows(o)),
+        "margin_shown": min(len(margin_rows(o)), MARGIN_ROWS_PER_CHART), "assumed": _assumed(o, system), "symbols": _symbols(o),
         "manual_items": _manual_items(o, system),
         "signoff": [{"role": label, "name": m.signoff.get(key, "")} for key, label in SIGNOFF_ROLES],
         # Recorded reviews of this spec (a list of mappings: name, role, date, verdict, fingerprint,
@@ -117,9 +126,28 @@ def _checks(o: Outcome, system: str) -> list[dict]:
             "n": n, "anchor": f"check-{n}", "id": c.id, "title": c.title, "status": c.status,
             "status_word": STATUS_WORD[c.status], "where": c.where or "whole machine",
             "value": show(c.value, c.kind, system, symbol), "limit": show(c.limit, c.kind, system, symbol),
-            "message": c.message, "target": _check_target(c), "corner": c.corner,
+            "message": typeset(c.message), "target": _check_target(c), "corner": c.corner,
+            "where_short": ", ".join(x for x in (c.duty, c.mode) if x), "margin": c.margin,
+            "where_compact": " / ".join(x for x in (c.drive, c.supply, c.cycle, c.duty, c.mode) if x) or "machine",
+            "margin_text": show(c.margin, "ratio", system) if c.margin is not None else "-",
+            "disposition": None,
         })
     return out
+
+
+def _passing_groups(checks: list[dict]) -> list[dict]:
+    """The passing checks by check id, in the order run: each id once, with every place it was
+    judged, its margin there, and the smallest of them."""
+    groups: dict[str, dict] = {}
+    for c in checks:
+        if c["status"] != "pass":
+            continue
+        g = groups.setdefault(c["id"], {"id": c["id"], "title": c["title"], "items": []})
+        g["items"].append(c)
+    for g in groups.values():
+        with_margin = [c for c in g["items"] if c["margin"] is not None]
+        g["smallest"] = min(with_margin, key=lambda c: (c["margin"], c["n"])) if with_margin else None
+    return list(groups.values())
 
 
 def _check_target(c: Check) -> str:
@@ -151,9 +179,24 @@ def _table(results, columns, system: str, first_head: list[str], first_cells: li
     return {"head": head, "rows": rows, "first_head": first_head, "first_cells": first_cells}
 
 
-def _trace_block(anchor: str, title: str, values: dict, system: str, checks: list[dict]) -> dict:
-    return {"anchor": anchor, "title": title, "rows": [trace_row(v, system) for v in values.values()],
-            "checks": [c for c in checks if c["target"] == anchor]}
+def _trace_block(anchor: str, title: str, values: dict, system: str, checks: list[dict], rows=None) -> dict:
+    own = [c for c in checks if c["target"] == anchor]
+    return {"anchor": anchor, "title": title, "grouped": False,
+            "rows": rows if rows is not None else [trace_row(v, system) for v in values.values()],
+            "problems": [c for c in own if c["status"] != "pass"], "passing": [c for c in own if c["status"] == "pass"]}
+
+
+def _group(anchor: str, title: str, cases: list[Case], system: str, checks: list[dict], rows=None,
+           whole: dict | None = None) -> dict:
+    """One case: its full trace, every input put into its relation; several: the grouped trace,
+    each relation once with a column of results a case (grouped.py). ``whole``: the values that
+    hold for every case (a drive's pressure limit, a supply's pump), set first."""
+    if len(cases) == 1:
+        head = [trace_row(v, system) for v in (whole or {}).values()]
+        own = rows if rows is not None else [trace_row(v, system) for v in cases[0].values.values()]
+        return _trace_block(cases[0].anchor, f"{title}: {cases[0].title or cases[0].name}", cases[0].values,
+                            system, checks, head + own)
+    return grouped(anchor, title, cases, system, checks, whole)
 
 
 def _cycle_context(o: Outcome, c, system: str, checks: list[dict], fig_n, draw: Batch) -> dict:
@@ -174,36 +217,40 @@ def _supply_context(o: Outcome, sup, system: str, checks: list[dict], fig_n, dra
     entered = supply_rows(o, sup, system)
     whole = r.supply_result(sup.id)
     traces = []
-    if whole is not None and whole.values:
-        traces.append(_trace_block(f"supply-{slug(sup.id)}-all", "All modes", whole.values, system, checks))
-    for x in modes:
-        title = next((md.title for md in m.modes if md.id == x.mode), x.mode)
-        block = _trace_block(f"mode-{slug(x.supply)}-{slug(x.mode)}", f"Mode {title}", x.trace, system, checks)
-        block["mode"] = x.mode
-        traces.append(block)
+    whole_values = whole.values if whole is not None and whole.values else None
+    if modes:
+        cases = [Case(x.mode, f"mode-{slug(x.supply)}-{slug(x.mode)}", x.trace,
+                      next((md.title for md in m.modes if md.id == x.mode), x.mode)) for x in modes]
+        traces.append(_group(f"supply-{slug(sup.id)}-modes", "The pump, then each operating mode", cases, system,
+                             checks, whole=whole_values))
+    elif whole_values:
+        traces.append(_trace_block(f"supply-{slug(sup.id)}-all", "All modes", whole_values, system, checks))
     return {
         "id": sup.id, "anchor": f"supply-{slug(sup.id)}", "title": sup.title, "entered": entered,
         "table": _table(modes, SUPPLY_COLUMNS, system, ["Mode"], [[x.mode] for x in modes]),
         "drives": [{"id": d.id, "anchor": f"drive-{slug(d.id)}"} for d in m.drives if d.supply == sup.id],
         "charts": supply_charts(o, sup, modes, system, fig_n, draw) if modes else [],
-        "traces": traces, "checks": [c for c in checks if c["target"] == f"supply-{slug(sup.id)}"],
+        "traces": traces, **_split(checks, f"supply-{slug(sup.id)}"),
     }
 
 
 def _drive_context(o: Outcome, d, system: str, checks: list[dict], fig_n, draw: Batch) -> dict:
     r = o.results
     duties = [x for x in r.duties if x.drive == d.id]
-    charts_, p_out = drive_charts(o, d, duties, system, fig_n, draw) if duties else ([], None)
+    charts_, p_out = drive_charts(o, d, duties, system, fig_n, draw) if _charted(o, d.id, duties) else ([], None)
     entered = drive_rows(o, d, system)
     traces = []
     whole = r.drive_result(d.id)
-    if whole is not None and whole.values:
-        traces.append(_trace_block(f"drive-{slug(d.id)}-all", "Drive as a whole", whole.values, system, checks))
-    for x in duties:
-        anchor = f"duty-{slug(x.drive)}-{slug(x.duty)}"
-        traces.append({"anchor": anchor, "title": f"Duty point {d.duty(x.duty).title}", "duty": x.duty,
-                       "direction": x.direction, "checks": [c for c in checks if c["target"] == anchor],
-                       "rows": [trace_row(v, system, given_text(o, x.drive, x.duty, k)) for k, v in x.values.items()]})
+    whole_values = whole.values if whole is not None and whole.values else None
+    if whole_values and not duties:
+        traces.append(_trace_block(f"drive-{slug(d.id)}-all", "Drive as a whole", whole_values, system, checks))
+    if duties:
+        cases = [Case(x.duty, f"duty-{slug(x.drive)}-{slug(x.duty)}", x.values,
+                      f"{d.duty(x.duty).title} ({x.direction})") for x in duties]
+        x = duties[0]
+        rows = [trace_row(v, system, given_text(o, x.drive, x.duty, k)) for k, v in x.values.items()]
+        traces.append(_group(f"drive-{slug(d.id)}-duties", "The drive, then each duty point", cases, system, checks,
+                             rows, whole_values))
     return {
         "id": d.id, "anchor": f"drive-{slug(d.id)}", "title": d.title, "supply": d.supply,
         "supply_anchor": f"supply-{slug(d.supply)}", "notes_html": to_html(d.notes),
@@ -211,8 +258,22 @@ def _drive_context(o: Outcome, d, system: str, checks: list[dict], fig_n, draw: 
         "table": _table(duties, DUTY_COLUMNS, system, ["Duty point", "Direction"],
                         [[x.duty, x.direction] for x in duties]),
         "charts": charts_, "back_pressure": p_out,
-        "traces": traces, "checks": [c for c in checks if c["target"] == f"drive-{slug(d.id)}"],
+        "traces": traces, **_split(checks, f"drive-{slug(d.id)}"),
     }
+
+
+def _split(checks: list[dict], target: str) -> dict:
+    """The checks aimed at ``target``: warnings and failures, and the passing ones."""
+    own = [c for c in checks if c["target"] == target]
+    return {"problems": [c for c in own if c["status"] != "pass"], "passing": [c for c in own if c["status"] == "pass"]}
+
+
+def _charted(o: Outcome, drive: str, duties: list) -> bool:
+    """A drive's charts carry what its tables do not where it has several duty points to compare,
+    or a check that warns or fails to show against its limits; one duty point well inside every
+    limit is its row of the trace and its bars on the margin chart."""
+    return len(duties) > 1 or (bool(duties) and any(
+        c.drive == drive and c.status != "pass" for c in o.results.checks))
 
 
 def _modes(o: Outcome) -> list[dict]:
@@ -223,7 +284,7 @@ def _modes(o: Outcome) -> list[dict]:
 
 def _assumed(o: Outcome, system: str) -> list[dict]:
     """Every assumed input the results rest on (built from the traces), with its basis."""
-    return [{"where": ".".join(i.where), "value": show(i.value, i.kind, system, i.symbol, i.label), "basis": i.basis}
+    return [{"where": ".".join(i.where), "value": show(i.value, i.kind, system, i.symbol, i.label), "basis": typeset(i.basis)}
             for i in o.results.assumed()]
 
 
@@ -235,18 +296,20 @@ def _manual_items(o: Outcome, system: str) -> list[dict]:
 
 
 def _symbols(o: Outcome) -> list[dict]:
-    """Each symbol used in the traces once, with its meaning, for the legend above them."""
+    """Each symbol that appears only inside relations, once, with its meaning: every computed or
+    given value is named beside its own symbol in its trace row, so the legend holds the rest."""
     seen: dict[str, str] = {}
+    own: set[str] = set()
     r = o.results
     m = o.machine
     parts = [*r.duties, *r.supply_modes,
              *map(r.drive_result, (d.id for d in m.drives)), *map(r.supply_result, (s.id for s in m.supplies)),
              *map(r.mode_result, (md.id for md in m.modes))]
-    groups = [x.trace for x in parts if x is not None] + [r.fluid.trace]
+    groups = [x.trace for x in parts if x is not None] + [r.fluid.trace] + [c.values for c in r.cycles]
     for values in groups:
         for v in values.values():
-            seen.setdefault(v.symbol, v.label)
+            own.add(v.symbol)
             for i in v.inputs:
                 if "[" not in i.symbol:
                     seen.setdefault(i.symbol, i.label)
-    return [{"symbol": s, "label": lab} for s, lab in seen.items()]
+    return [{"symbol": s, "label": typeset(lab)} for s, lab in seen.items() if s not in own]
