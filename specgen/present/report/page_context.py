@@ -57,11 +57,12 @@ SUPPLY_COLUMNS = (("flow_demand", "q_sum"), ("pump_delivery", "q_p"), ("flow_sur
 
 
 def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: list | None = None,
-            draw: Batch | None = None) -> dict:
+            draw: Batch | None = None, review=None) -> dict:
     """Everything the report template shows, as plain values and formatted text.
 
     The charts are asked for from ``draw`` and left for the caller to draw (Batch.start, finish);
-    without it they are drawn here, before this returns."""
+    without it they are drawn here, before this returns. ``review``: the review.ReviewStatus of the
+    spec (its state and its accepted warnings), when known."""
     m, r = o.machine, o.results
     system = m.display_units
     fig_counter = iter(range(1, 10_000))
@@ -69,7 +70,7 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
     def fig_n() -> str:
         return f"fig{next(fig_counter)}"
 
-    checks = _checks(o, system)
+    checks = _checks(o, system, review)
     problems = sorted((c for c in checks if c["status"] != "pass"), key=lambda c: (-RANK[c["status"]], c["n"]))
     # The charts are asked for while the context is built and drawn together: many of them in
     # parallel (chart_batch.py), in the same order and to the same bytes.
@@ -86,7 +87,8 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
     fluid_values = r.fluid.values
     if own_batch:
         draw.draw()
-    fp_footer = f"{m.title[:80]} - rev {m.revision} - spec sha256 {fp.short}"
+    doc = f"{m.document_number[:60]} - " if m.document_number else ""
+    fp_footer = f"{doc}{m.title[:80]} - rev {m.revision} - file SHA-256 {fp.short}"
     fluid_trace = _trace_block("fluid-trace", "Fluid at the working temperature", fluid_values, system, checks) \
         if fluid_values else None
     blocks = ([fluid_trace] if fluid_trace else []) + mode_traces + [c["trace"] for c in cycles] + \
@@ -94,11 +96,13 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
     relations = number_relations(blocks)
     return {
         "machine": {"id": m.id, "title": m.title, "revision": m.revision, "units": system,
+                    "document_number": m.document_number,
                     "page_size": m.page_size if m.page_size in ("A4", "Letter") else "A4"},
         "spec_file": o.source.name, "fingerprint": fp, "version": __version__, "date": date,
         "footer": fp_footer,
         "verdict": r.verdict, "verdict_word": STATUS_WORD[r.verdict], "counts": r.counts(),
         "problems": problems, "checks": checks, "passing_groups": _passing_groups(checks),
+        "key_facts": _key_facts(o, checks, system), "review": _review(o, review),
         "corners": [{"id": k.id, "title": k.title, "modes": ", ".join(k.modes),
                      "moves": "; ".join(f"{path} {value}" for path, value in k.overrides),
                      "basis": k.basis if k.assumed else "", "verdict": k.verdict,
@@ -118,7 +122,32 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
     }
 
 
-def _checks(o: Outcome, system: str) -> list[dict]:
+def _review(o: Outcome, review) -> dict:
+    """The review state for page 1, and the content fingerprint the review records are bound to."""
+    from specgen.review import spec_fingerprint
+
+    content = review.fingerprint if review is not None and review.fingerprint else spec_fingerprint(o.source)
+    accepted = list(review.accepted) if review is not None else []
+    return {"state": review.state if review is not None else "unknown",
+            "text": review.text if review is not None else "not looked up (no review record was read)",
+            "content": content, "content_short": content[:12],
+            "accepted": len([d for d in accepted if not d.stale]), "stale": len([d for d in accepted if d.stale])}
+
+
+def _key_facts(o: Outcome, checks: list[dict], system: str) -> dict:
+    """Page 1's figures: how many values were assumed, and the smallest margin of any check."""
+    with_margin = [c for c in checks if c["margin"] is not None]
+    smallest = min(with_margin, key=lambda c: (c["margin"], c["n"])) if with_margin else None
+    return {"assumed": len(o.results.assumed()), "smallest": smallest}
+
+
+def _disposition(d) -> dict:
+    return {"name": d.name, "role": d.role, "date": d.date, "reason": d.reason, "stale": d.stale,
+            "fingerprint": d.fingerprint[:12]}
+
+
+def _checks(o: Outcome, system: str, review=None) -> list[dict]:
+    accepted = {(d.check, d.where): _disposition(d) for d in (review.accepted if review is not None else ())}
     out = []
     for n, c in enumerate(o.results.checks, start=1):
         symbol = ""  # a ratio in a check is a margin or threshold: shown in percent
@@ -130,7 +159,7 @@ def _checks(o: Outcome, system: str) -> list[dict]:
             "where_short": ", ".join(x for x in (c.duty, c.mode) if x), "margin": c.margin,
             "where_compact": " / ".join(x for x in (c.drive, c.supply, c.cycle, c.duty, c.mode) if x) or "machine",
             "margin_text": show(c.margin, "ratio", system) if c.margin is not None else "-",
-            "disposition": None,
+            "disposition": accepted.get((c.id, c.where)) if c.status == "warn" else None,
         })
     return out
 

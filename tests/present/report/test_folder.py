@@ -62,7 +62,7 @@ def test_failed_render_leaves_the_earlier_report_untouched(tmp_path, monkeypatch
         calls.append(1)
         raise RuntimeError("chart failed mid-render")
 
-    monkeypatch.setattr(charts, "speed_vs_flow", broken)
+    monkeypatch.setattr(charts, "margin_overview", broken)
     d = minimal()
     d["machine"]["revision"] = "B"
     write_spec(tmp_path, d)
