@@ -78,10 +78,16 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
     draw = Batch() if own_batch else draw
     margins = margin_charts(o, fig_n, draw)
     supplies = [_supply_context(o, sup, system, checks, fig_n, draw) for sup in m.supplies]
-    drives = [_drive_context(o, d, system, checks, fig_n, draw) for d in m.drives]
+    drives = [_drive_context(o, d, system, checks) for d in m.drives]
+    _mark_repeats(drives)
+    charted = _charted(o, {d["id"] for d in drives if d["same_as"]})
+    for d, ctx in zip(m.drives, drives):
+        duties = [x for x in r.duties if x.drive == d.id]
+        if d.id in charted and duties:
+            ctx["charts"], ctx["back_pressure"] = drive_charts(o, d, duties, system, fig_n, draw)
     mode_cases = [Case(x.mode, f"mode-{slug(x.mode)}", x.values)
                   for x in map(r.mode_result, (md.id for md in m.modes)) if x is not None and x.values]
-    mode_traces = [_group("modes-all", "All supplies, by operating mode", mode_cases, system, checks)] \
+    mode_traces = _groups("modes-all", "All supplies, by operating mode", mode_cases, system, checks) \
         if mode_cases else []
     cycles = [_cycle_context(o, c, system, checks, fig_n, draw) for c in r.cycles]
     fluid_values = r.fluid.values
@@ -102,7 +108,7 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
         "footer": fp_footer,
         "verdict": r.verdict, "verdict_word": STATUS_WORD[r.verdict], "counts": r.counts(),
         "problems": problems, "checks": checks, "passing_groups": _passing_groups(checks),
-        "key_facts": _key_facts(o, checks, system), "review": _review(o, review),
+        "key_facts": _key_facts(o, checks, system), "max_drive_charts": MAX_DRIVE_CHARTS, "review": _review(o, review),
         "corners": [{"id": k.id, "title": k.title, "modes": ", ".join(k.modes),
                      "moves": "; ".join(f"{path} {value}" for path, value in k.overrides),
                      "basis": k.basis if k.assumed else "", "verdict": k.verdict,
@@ -228,6 +234,20 @@ def _group(anchor: str, title: str, cases: list[Case], system: str, checks: list
     return grouped(anchor, title, cases, system, checks, whole)
 
 
+MAX_CASE_COLUMNS = 7  # value columns a grouped trace prints side by side on a portrait page
+
+
+def _groups(anchor: str, title: str, cases: list[Case], system: str, checks: list[dict], rows=None,
+            whole: dict | None = None) -> list[dict]:
+    """The trace of ``cases`` as one block, or as several of at most MAX_CASE_COLUMNS cases each
+    (the values of the whole in the first) when there are more than a page holds side by side."""
+    if len(cases) <= MAX_CASE_COLUMNS:
+        return [_group(anchor, title, cases, system, checks, rows, whole)]
+    parts = [cases[k:k + MAX_CASE_COLUMNS] for k in range(0, len(cases), MAX_CASE_COLUMNS)]
+    return [grouped(f"{anchor}-{n}", f"{title} ({n} of {len(parts)})", part, system, checks,
+                    whole if n == 1 else None) for n, part in enumerate(parts, start=1)]
+
+
 def _cycle_context(o: Outcome, c, system: str, checks: list[dict], fig_n, draw: Batch) -> dict:
     """A duty cycle: its steps, its trace (heat, power, oil temperature) and the oil-temperature chart."""
     cycle = next(x for x in o.machine.duty_cycles if x.id == c.cycle)
@@ -250,8 +270,8 @@ def _supply_context(o: Outcome, sup, system: str, checks: list[dict], fig_n, dra
     if modes:
         cases = [Case(x.mode, f"mode-{slug(x.supply)}-{slug(x.mode)}", x.trace,
                       next((md.title for md in m.modes if md.id == x.mode), x.mode)) for x in modes]
-        traces.append(_group(f"supply-{slug(sup.id)}-modes", "The pump, then each operating mode", cases, system,
-                             checks, whole=whole_values))
+        traces += _groups(f"supply-{slug(sup.id)}-modes", "The pump, then each operating mode", cases, system,
+                          checks, whole=whole_values)
     elif whole_values:
         traces.append(_trace_block(f"supply-{slug(sup.id)}-all", "All modes", whole_values, system, checks))
     return {
@@ -263,10 +283,10 @@ def _supply_context(o: Outcome, sup, system: str, checks: list[dict], fig_n, dra
     }
 
 
-def _drive_context(o: Outcome, d, system: str, checks: list[dict], fig_n, draw: Batch) -> dict:
+def _drive_context(o: Outcome, d, system: str, checks: list[dict]) -> dict:
+    """A drive's section; its charts are asked for afterwards, for the drives that get them."""
     r = o.results
     duties = [x for x in r.duties if x.drive == d.id]
-    charts_, p_out = drive_charts(o, d, duties, system, fig_n, draw) if _charted(o, d.id, duties) else ([], None)
     entered = drive_rows(o, d, system)
     traces = []
     whole = r.drive_result(d.id)
@@ -278,15 +298,15 @@ def _drive_context(o: Outcome, d, system: str, checks: list[dict], fig_n, draw: 
                       f"{d.duty(x.duty).title} ({x.direction})") for x in duties]
         x = duties[0]
         rows = [trace_row(v, system, given_text(o, x.drive, x.duty, k)) for k, v in x.values.items()]
-        traces.append(_group(f"drive-{slug(d.id)}-duties", "The drive, then each duty point", cases, system, checks,
-                             rows, whole_values))
+        traces += _groups(f"drive-{slug(d.id)}-duties", "The drive, then each duty point", cases, system, checks,
+                          rows, whole_values)
     return {
         "id": d.id, "anchor": f"drive-{slug(d.id)}", "title": d.title, "supply": d.supply,
         "supply_anchor": f"supply-{slug(d.supply)}", "notes_html": to_html(d.notes),
         "entered": entered, "duties_entered": duty_rows(o, d, system),
         "table": _table(duties, DUTY_COLUMNS, system, ["Duty point", "Direction"],
                         [[x.duty, x.direction] for x in duties]),
-        "charts": charts_, "back_pressure": p_out,
+        "charts": [], "back_pressure": None, "same_as": None,
         "traces": traces, **_split(checks, f"drive-{slug(d.id)}"),
     }
 
@@ -297,12 +317,52 @@ def _split(checks: list[dict], target: str) -> dict:
     return {"problems": [c for c in own if c["status"] != "pass"], "passing": [c for c in own if c["status"] == "pass"]}
 
 
-def _charted(o: Outcome, drive: str, duties: list) -> bool:
-    """A drive's charts carry what its tables do not where it has several duty points to compare,
-    or a check that warns or fails to show against its limits; one duty point well inside every
-    limit is its row of the trace and its bars on the margin chart."""
-    return len(duties) > 1 or (bool(duties) and any(
-        c.drive == drive and c.status != "pass" for c in o.results.checks))
+MAX_DRIVE_CHARTS = 8  # drives charted at most: a large machine's report stays a document, not an atlas
+
+
+def _charted(o: Outcome, repeats: set[str] = frozenset()) -> set[str]:
+    """The drives whose torque and speed charts carry what the tables do not: those with a check that
+    warns or fails, to see how near the limit the duty points sit; on a large machine only the
+    MAX_DRIVE_CHARTS with the smallest margins, and never a repeat of a drive already charted.
+    The margin chart and the traces hold the rest."""
+    worst: dict[str, float] = {}
+    for c in o.results.checks:
+        if c.drive and c.status != "pass" and c.drive not in repeats:
+            margin = c.margin if c.margin is not None else float("-inf")
+            worst[c.drive] = min(worst.get(c.drive, float("inf")), margin)
+    order = sorted(worst, key=lambda d: (worst[d], d))
+    return set(order[:MAX_DRIVE_CHARTS])
+
+
+def _signature(d: dict) -> str:
+    """What a drive's section shows, without its own id and supply: two drives with the same signature
+    have the same motor, gear stage, duty points, values and relations."""
+    import json
+
+    prefix = f"drives.{d['id']}."
+    # the supply is named beside a repeat: like drives on other supplies of the same data repeat too
+    entered = [(x["label"], x["path"].removeprefix(prefix), x["entered"], x["shown"], x["assumed"])
+               for x in d["entered"] if x["path"] != prefix + "supply"]
+    duties = [{k: v for k, v in u.items() if k != "more"} for u in d["duties_entered"]]
+    traces = [[(x["label"], x["formula"], x.get("result"), [c and c["text"] for c in x.get("cells", [])],
+                x.get("span") and x["span"]["text"], x["note"]) for x in t["rows"]] for t in d["traces"]]
+    return json.dumps([entered, duties, traces], sort_keys=True, default=str).replace(f'"{prefix}', '"')
+
+
+def _mark_repeats(drives: list[dict]) -> None:
+    """A drive the same as an earlier one (a machine of many like conveyors) is shown as a reference
+    to it, with its own warnings and failures; its numbers are those of the first."""
+    first: dict[str, dict] = {}
+    for d in drives:
+        key = _signature(d)
+        if key in first:
+            f = first[key]
+            d["same_as"] = {"id": f["id"], "anchor": f["anchor"], "title": f["title"]}
+            d["anchors"] = [t["anchor"] for t in d["traces"]] + [c["anchor"] for t in d["traces"]
+                                                                 for c in t.get("cases", [])]
+            d["all_problems"] = d["problems"] + [c for t in d["traces"] for c in t["problems"]]
+        else:
+            first[key] = d
 
 
 def _modes(o: Outcome) -> list[dict]:
