@@ -22,6 +22,7 @@ MARGIN_CHECKS = {
 }
 
 MARGIN_ROWS_PER_CHART = 24
+MAX_STACKED_DRIVES = 8  # a supply's flow bars show each drive's share up to this many drives
 
 
 def _displacement(r) -> float | None:
@@ -104,6 +105,8 @@ def supply_charts(o: Outcome, sup, modes, system: str, fig_n, draw: Batch) -> li
                 drives.append(c.drive)
     flows = [[sum(plain(c.flow, "flow", system) for c in r.contributions if c.drive == d) for d in drives]
              for r in modes]
+    if len(drives) > MAX_STACKED_DRIVES:  # too many to tell apart: each mode's total, drives in the trace
+        drives, flows = [f"all {len(drives)} drives"], [[sum(row)] for row in flows]
     names = [titles[r.mode] for r in modes]
     flow = draw(
         charts.flow_by_mode, fig_n(), f"{sup.title}: flow demand by operating mode", unit=q_unit, modes=names,
