@@ -110,7 +110,7 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
         "problems": problems, "checks": checks, "passing_groups": _passing_groups(checks),
         "key_facts": _key_facts(o, checks, system), "max_drive_charts": MAX_DRIVE_CHARTS, "review": _review(o, review),
         "corners": [{"id": k.id, "title": k.title, "modes": ", ".join(k.modes),
-                     "moves": "; ".join(f"{path} {value}" for path, value in k.overrides),
+                     "moves": typeset("; ".join(f"{path} {value}" for path, value in k.overrides)),
                      "basis": k.basis if k.assumed else "", "verdict": k.verdict,
                      "verdict_word": STATUS_WORD[k.verdict]} for k in r.corners],
         "cautions": [{"title": t, "text": x} for t, x in CAUTIONS],

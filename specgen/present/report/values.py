@@ -126,7 +126,7 @@ def substitute(value: Value, system: str) -> list[Segment]:
 def trace_row(value: Value, system: str, entered: str | None = None) -> dict:
     """One line of a calculation trace as the template shows it: formula, substitution, result, source."""
     return {
-        "key": value.key, "label": value.label, "symbol": value.symbol, "formula": value.formula,
+        "key": value.key, "label": typeset(value.label), "symbol": value.symbol, "formula": value.formula,
         "words": typeset(value.words), "substituted": substitute(value, system),
         "inputs": [{"symbol": i.symbol, "label": i.label, "text": _input_text(i, system) if i.kind != "ratio"
                     else show(i.value, i.kind, system, i.symbol, i.label), "assumed": i.assumed}

@@ -237,3 +237,64 @@ def test_thermal_section_with_chart_steps_and_linked_checks():
     assert 'href="#cycle-container_moves"' in page
     plain = report.render(run_file(ROOT / "example_specs" / "log_deck.yaml"), fp=FIXED)
     assert 'id="thermal"' not in plain
+
+
+def _printed_text(page: str) -> str:
+    """The page less what the user typed (as-entered cells, the description) and the relations,
+    which are written in the ASCII the spec and the formulas use."""
+    body = page[page.index("<body>"):]
+    body = re.sub(r'<(td|span) class="(num )?entered-text">.*?</\1>', "", body, flags=re.S)
+    body = re.sub(r"<code[^>]*>.*?</code>", "", body, flags=re.S)
+    body = re.sub(r'<section id="description".*?</section>', "", body, flags=re.S)
+    return htmllib.unescape(body)
+
+
+def test_units_are_typeset_as_engineers_write_them(example):
+    """cm^3, degC, N*m, mm^2/s, m/s^2 are printed cm\u00b3, \u00b0C, N\u00b7m, mm\u00b2/s, m/s\u00b2 in the report
+    (charts too); the text and JSON outputs keep the ASCII spellings."""
+    o, page = example
+    printed = _printed_text(page)
+    for typeset_unit in ("cm\u00b3/rev", "\u00b0C", "N\u00b7m", "mm\u00b2/s", "L/min", "kW"):
+        assert typeset_unit in printed, typeset_unit
+    for ascii_unit in ("cm^3", "degC", "N*m", "mm^2/s", "m/s^2", "kg/m^3"):
+        assert ascii_unit not in printed, (ascii_unit, printed[max(0, printed.find(ascii_unit) - 80):][:160])
+    from specgen.present import text
+
+    assert "cm^3/rev" in text.render(o) and "cm\u00b3" not in text.render(o)
+
+
+def test_key_paths_break_at_dots_only(example):
+    _, page = example
+    assert '<th scope="row" class="path" title="Continuous pressure rating">motor.<wbr>rating.<wbr>' \
+           'continuous_pressure</th>' in page
+    rule = re.search(r"\.path \{[^}]*\}", page).group(0)
+    assert "break-all" not in rule  # no break inside a word of a key while a dot is there to break at
+
+
+def test_page_one_names_both_hashes_and_the_figures_a_reviewer_needs(example):
+    o, page = example
+    top = page[:page.index('id="cautions"')]
+    # the file's bytes and the normalised content, each named for what it is
+    assert "File SHA-256" in top and "Content fingerprint" in top
+    from specgen.review import spec_fingerprint
+
+    assert o.source.raw and spec_fingerprint(o.source) in top
+    assert "Document no." in top and "not stated (machine.document_number)" in top
+    assert f"<strong>{len(o.results.assumed())}</strong> values filled in" in top
+    # the smallest margin of any check: breakaway of track_left at climb, 3112 N*m at the compensator
+    # setting against 3011 N*m needed: (3112 - 3011) / 3011 = 3.35 %, shown from the check's own margin
+    smallest = min((c for c in o.results.checks if c.margin is not None), key=lambda c: c.margin)
+    assert smallest.id == "breakaway" and smallest.drive == "track_left"
+    assert f"<strong>{show(smallest.margin, 'ratio', 'SI')}</strong>: <a href=" in top
+    assert "Review state</th><td><strong>unknown</strong>" in top or "Review state" in top
+    signoff = page[page.index('id="signoff"'):]
+    assert "file SHA-256" in signoff and "content fingerprint" in signoff
+
+
+def test_document_number_on_page_one_and_in_every_footer(tmp_path):
+    d = minimal()
+    d["machine"]["document_number"] = "DR-2026-0142"
+    page = report.render(run_file(write_spec(tmp_path, d)), fp=FIXED)
+    assert "<strong>DR-2026-0142</strong>" in page[:page.index('id="summary"')]
+    footer = re.search(r"@bottom-left \{ content: (\"[^\"]*\")", page).group(1)
+    assert "DR" in footer and "2026" in footer
