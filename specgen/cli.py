@@ -207,7 +207,8 @@ def cmd_diff(args) -> int:
 
 def cmd_review(args) -> int:
     from specgen.pipeline import run_file
-    from specgen.review import append_disposition, append_review, reviews_path
+    from specgen.dispositions import append_disposition
+    from specgen.review import append_review, reviews_path
 
     if args.accept_warning is None and args.verdict is None:
         raise SpecError([Problem(Location("--verdict"), "", "give the review's verdict, or --accept-warning CHECK")])

@@ -19,7 +19,7 @@ import re
 from dataclasses import dataclass
 from typing import Sequence
 
-from specgen.present.chart_frame import (EDGE, GREYS, HALF_HEIGHT_IN, HALF_WIDTH_IN, HATCHES, HEIGHT_IN, INK, KEY_ROW,
+from specgen.present.chart_frame import (EDGE, GREYS, HALF_HEIGHT_IN, HALF_WIDTH_IN, HATCHES, INK, KEY_ROW,
                                          LABEL, STYLE, TICK, TICK_TEXT, TITLE, WIDTH_IN, Frame, left_margin, new_frame,
                                          text_width, ticks, wrap)
 from specgen.units import significant
@@ -136,8 +136,9 @@ def _merge_limits(limits: Sequence[Limit], span: float, axis_pt: float = 0.0) ->
     for g in groups:
         if len({lim.value for lim in g}) == 1:
             text = " = ".join(lim.label for lim in g) + f" {g[0].value}"
-        else:  # close but different: one line of text each, side by side
-            text = "\n".join(f"{lim.label} {lim.value}" for lim in g)
+        else:  # close but different: one line of text a value, side by side
+            values = list(dict.fromkeys(lim.value for lim in g))
+            text = "\n".join(" = ".join(lim.label for lim in g if lim.value == v) + f" {v}" for v in values)
         out.append((g[0].at, g[0].style, text))
     return out
 

@@ -9,6 +9,7 @@ here recomputes a relation.
 
 from __future__ import annotations
 
+
 from specgen import __version__
 from specgen.results import RANK
 from specgen.cautions import CAUTIONS
@@ -18,10 +19,10 @@ from specgen.present.chart_batch import Batch
 from specgen.present.markdown_text import to_html
 from specgen.present.report.chart_data import (MARGIN_ROWS_PER_CHART, cycle_chart, drive_charts, margin_charts,
                                                 margin_rows, supply_charts)
+from specgen.present.report.checklist import check_rows, key_facts, passing_groups, review_context
 from specgen.present.report.entered import drive_rows, duty_rows, fluid_rows, given_text, supply_rows
 from specgen.present.report.grouped import Case, by_source, grouped, number_relations
 from specgen.present.report.values import STATUS_WORD, show, slug, trace_row, typeset
-from specgen.results import Check
 
 
 MANUAL_ITEMS = (
@@ -70,7 +71,7 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
     def fig_n() -> str:
         return f"fig{next(fig_counter)}"
 
-    checks = _checks(o, system, review)
+    checks = check_rows(o, system, review)
     problems = sorted((c for c in checks if c["status"] != "pass"), key=lambda c: (-RANK[c["status"]], c["n"]))
     # The charts are asked for while the context is built and drawn together: many of them in
     # parallel (chart_batch.py), in the same order and to the same bytes.
@@ -107,8 +108,8 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
         "spec_file": o.source.name, "fingerprint": fp, "version": __version__, "date": date,
         "footer": fp_footer,
         "verdict": r.verdict, "verdict_word": STATUS_WORD[r.verdict], "counts": r.counts(),
-        "problems": problems, "checks": checks, "passing_groups": _passing_groups(checks),
-        "key_facts": _key_facts(o, checks, system), "max_drive_charts": MAX_DRIVE_CHARTS, "review": _review(o, review),
+        "problems": problems, "checks": checks, "passing_groups": passing_groups(checks),
+        "key_facts": key_facts(o, checks, system), "max_drive_charts": MAX_DRIVE_CHARTS, "review": review_context(o, review),
         "corners": [{"id": k.id, "title": k.title, "modes": ", ".join(k.modes),
                      "moves": typeset("; ".join(f"{path} {value}" for path, value in k.overrides)),
                      "basis": k.basis if k.assumed else "", "verdict": k.verdict,
@@ -126,79 +127,6 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
         # machine_revision, remarks); shown in the template's "reviews" block, empty by default.
         "reviews": list(reviews or []),
     }
-
-
-def _review(o: Outcome, review) -> dict:
-    """The review state for page 1, and the content fingerprint the review records are bound to."""
-    from specgen.review import spec_fingerprint
-
-    content = review.fingerprint if review is not None and review.fingerprint else spec_fingerprint(o.source)
-    accepted = list(review.accepted) if review is not None else []
-    return {"state": review.state if review is not None else "unknown",
-            "text": review.text if review is not None else "not looked up (no review record was read)",
-            "content": content, "content_short": content[:12],
-            "accepted": len([d for d in accepted if not d.stale]), "stale": len([d for d in accepted if d.stale])}
-
-
-def _key_facts(o: Outcome, checks: list[dict], system: str) -> dict:
-    """Page 1's figures: how many values were assumed, and the smallest margin of any check."""
-    with_margin = [c for c in checks if c["margin"] is not None]
-    smallest = min(with_margin, key=lambda c: (c["margin"], c["n"])) if with_margin else None
-    return {"assumed": len(o.results.assumed()), "smallest": smallest}
-
-
-def _disposition(d) -> dict:
-    return {"name": d.name, "role": d.role, "date": d.date, "reason": d.reason, "stale": d.stale,
-            "fingerprint": d.fingerprint[:12]}
-
-
-def _checks(o: Outcome, system: str, review=None) -> list[dict]:
-    accepted = {(d.check, d.where): _disposition(d) for d in (review.accepted if review is not None else ())}
-    out = []
-    for n, c in enumerate(o.results.checks, start=1):
-        symbol = ""  # a ratio in a check is a margin or threshold: shown in percent
-        out.append({
-            "n": n, "anchor": f"check-{n}", "id": c.id, "title": c.title, "status": c.status,
-            "status_word": STATUS_WORD[c.status], "where": c.where or "whole machine",
-            "value": show(c.value, c.kind, system, symbol), "limit": show(c.limit, c.kind, system, symbol),
-            "message": typeset(c.message), "target": _check_target(c), "corner": c.corner,
-            "where_short": ", ".join(x for x in (c.duty, c.mode) if x), "margin": c.margin,
-            "where_compact": " / ".join(x for x in (c.drive, c.supply, c.cycle, c.duty, c.mode) if x) or "machine",
-            "margin_text": show(c.margin, "ratio", system) if c.margin is not None else "-",
-            "disposition": accepted.get((c.id, c.where)) if c.status == "warn" else None,
-        })
-    return out
-
-
-def _passing_groups(checks: list[dict]) -> list[dict]:
-    """The passing checks by check id, in the order run: each id once, with every place it was
-    judged, its margin there, and the smallest of them."""
-    groups: dict[str, dict] = {}
-    for c in checks:
-        if c["status"] != "pass":
-            continue
-        g = groups.setdefault(c["id"], {"id": c["id"], "title": c["title"], "items": []})
-        g["items"].append(c)
-    for g in groups.values():
-        with_margin = [c for c in g["items"] if c["margin"] is not None]
-        g["smallest"] = min(with_margin, key=lambda c: (c["margin"], c["n"])) if with_margin else None
-    return list(groups.values())
-
-
-def _check_target(c: Check) -> str:
-    if c.drive and c.duty:
-        return f"duty-{slug(c.drive)}-{slug(c.duty)}"
-    if c.drive:
-        return f"drive-{slug(c.drive)}"
-    if c.supply and c.mode:
-        return f"mode-{slug(c.supply)}-{slug(c.mode)}"
-    if c.supply:
-        return f"supply-{slug(c.supply)}"
-    if c.mode:
-        return f"mode-{slug(c.mode)}"
-    if c.cycle:
-        return f"cycle-{slug(c.cycle)}"
-    return "checklist"
 
 
 def _table(results, columns, system: str, first_head: list[str], first_cells: list[list[str]]) -> dict:
