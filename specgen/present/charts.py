@@ -179,8 +179,11 @@ def _points(ax, points: Sequence[Point], span: tuple[float, float], size_pt: tup
                     ha=ha, va=va, fontsize=7, zorder=6, bbox=_CLEAR)
 
 
-def _key_labels(line_label: str, points: Sequence[Point]) -> list[str]:
-    labels = [line_label, "driving duty point"]
+LINE_WIDTHS = (1.4, 0.7, 2.2, 0.45)  # one displacement's line from the next, in the key too
+
+
+def _key_labels(lines: Sequence[Line], points: Sequence[Point]) -> list[str]:
+    labels = [line.label for line in lines] + ["driving duty point"]
     return labels + ["overrunning duty point"] if any(p.overrunning for p in points) else labels
 
 
@@ -197,12 +200,15 @@ def _key_columns(labels: Sequence[str], width_pt: float) -> int:
     return 1
 
 
-def _key(ax, line_label: str, points: Sequence[Point], ncol: int) -> None:
-    """A small key for what is not labelled on the chart itself: the line and the point shapes."""
+def _key(ax, lines: Sequence[Line], points: Sequence[Point], ncol: int) -> None:
+    """A small key for what is not labelled on the chart itself: each displacement's line (told
+    apart by its weight) and the point shapes."""
     from matplotlib.lines import Line2D
 
-    handles = [Line2D([], [], color=INK, linewidth=1.4, label=line_label),
-               Line2D([], [], color=INK, marker="o", markersize=4.5, linestyle="none", label="driving duty point")]
+    handles = [Line2D([], [], color=INK, linewidth=LINE_WIDTHS[k % len(LINE_WIDTHS)], label=line.label)
+               for k, line in enumerate(lines)]
+    handles.append(Line2D([], [], color=INK, marker="o", markersize=4.5, linestyle="none",
+                          label="driving duty point"))
     if any(p.overrunning for p in points):
         handles.append(Line2D([], [], marker="s", markersize=5, markerfacecolor="white", markeredgecolor=INK,
                               linestyle="none", label="overrunning duty point"))
@@ -213,10 +219,14 @@ def _key(ax, line_label: str, points: Sequence[Point], ncol: int) -> None:
 def _vertical_limits(ax, limits: Sequence[Limit], span: float) -> None:
     # Labels stand at the foot of their line: the displacement line runs high on the right.
     width_pt = ax.get_position().width * ax.figure.get_figwidth() * 72
+    height_pt = ax.get_position().height * ax.figure.get_figheight() * 72
     for at, style, text in _merge_limits(limits, span, width_pt):
         ax.axvline(at, color=INK, linewidth=1.0, linestyle=LIMIT_STYLES[style], zorder=3)
+        # a label up its line stays inside the axes: set smaller (down to 5 pt) where it is long
+        longest = max(text_width(line, 6.8) for line in text.split("\n"))
+        size = max(5.0, min(6.8, 6.8 * (height_pt - 8) / longest)) if longest else 6.8
         ax.annotate(text, (at, 0.0), xycoords=("data", "axes fraction"), xytext=(-3, 4),
-                    textcoords="offset points", rotation=90, ha="right", va="bottom", fontsize=6.8, bbox=_CLEAR)
+                    textcoords="offset points", rotation=90, ha="right", va="bottom", fontsize=size, bbox=_CLEAR)
 
 
 def _horizontal_limits(ax, limits: Sequence[Limit], span: float) -> None:
@@ -248,12 +258,11 @@ class Line:
 
 
 def _lines(ax, lines: Sequence[Line], x_max: float) -> None:
-    widths = (1.4, 0.9, 2.0, 0.6)
+    """One line a displacement; the key names each by its weight (at the right edge, where the
+    lines leave the chart, the limit labels stand)."""
     for k, line in enumerate(lines):
-        ax.plot([0, x_max], [0, line.slope * x_max], color=INK, linewidth=widths[k % len(widths)], zorder=4)
-        if len(lines) > 1:  # several displacements: each line named where it leaves the chart
-            ax.annotate(line.label, (x_max, line.slope * x_max), xytext=(-3, 2), textcoords="offset points",
-                        ha="right", va="bottom", fontsize=6.5, bbox=_CLEAR, annotation_clip=True)
+        ax.plot([0, x_max], [0, line.slope * x_max], color=INK, linewidth=LINE_WIDTHS[k % len(LINE_WIDTHS)],
+                zorder=4)
 
 
 def _line_text(lines: Sequence[Line], x_unit: str, y_unit: str) -> str:
@@ -278,8 +287,7 @@ def _numeric_frame(height_in: float, title: str, x_range: tuple[float, float], y
 def _line_chart(fig_id: str, title: str, *, x_label: str, y_label: str, x_max: float, y_max: float,
                 lines: Sequence[Line], points: Sequence[Point], paint_limits) -> str:
     """A drive's line chart, drawn half the text width wide: two stand side by side on the page."""
-    line_label = lines[0].label if len(lines) == 1 else "displacement lines (named)"
-    labels = _key_labels(line_label, points)
+    labels = _key_labels(lines, points)
     ncol = _key_columns(labels, HALF_WIDTH_IN * 72)
     key = KEY_ROW + KEY_LINE * (-(-len(labels) // ncol) - 1)
 
@@ -290,7 +298,7 @@ def _line_chart(fig_id: str, title: str, *, x_label: str, y_label: str, x_max: f
         _lines(ax, lines, x_max)
         paint_limits(ax)
         _points(ax, points, (x_max, y_max), (frame.width, frame.height))
-        _key(ax, line_label, points, ncol)
+        _key(ax, lines, points, ncol)
         frame.label(x_label, y_label)
         return frame.fig
 
