@@ -304,3 +304,26 @@ def test_document_number_on_page_one_and_in_every_footer(tmp_path):
     assert "<strong>DR-2026-0142</strong>" in page[:page.index('id="summary"')]
     footer = re.search(r"@bottom-left \{ content: (\"[^\"]*\")", page).group(1)
     assert "DR" in footer and "2026" in footer
+
+
+def test_a_large_machine_gives_a_document_not_an_atlas(tmp_path):
+    """Drives repeated from the demo are references to the first with their own warnings; drive
+    charts only for the drives with warnings, at most MAX_DRIVE_CHARTS; traces of more than seven
+    modes split into tables of seven columns; every check still has its anchor."""
+    from specgen import bench
+    from specgen.present.report import page_context
+
+    data = bench.generate(bench._demo_data(bench.demo_spec()), 48, 12)
+    o = run_file(bench.write_spec(tmp_path / "big.yaml", data))
+    page = report.render(o, fp=FIXED)
+    assert page.count('class="same-as"') >= 24
+    twin = page[page.index('class="same-as"'):]
+    assert "The same motor, gear stage and duty points as drive" in twin[:twin.index("</p>")]
+    pairs = page.count('class="chart-pair"')
+    assert 0 < pairs <= page_context.MAX_DRIVE_CHARTS
+    for n in range(1, len(o.results.checks) + 1):
+        assert f'id="check-{n}"' in page
+    for r in o.results.duties:  # a twin's duty anchors stay, so the checklist links land
+        assert f'id="duty-{r.drive}-{r.duty}"' in page
+    for table in re.findall(r'<table class="trace grouped">.*?</table>', page, re.S):
+        assert table.count('class="num case"') <= page_context.MAX_CASE_COLUMNS
