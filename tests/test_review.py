@@ -225,7 +225,8 @@ def test_a_warning_is_accepted_with_a_reason_and_shown_beside_it(tmp_path):
     assert run_cli("report", spec, "-o", out_dir)[0] == 0
     html = (out_dir / "index.html").read_text(encoding="utf-8")
     assert "Accepted</span>" not in html  # the word sits inside the note with who and why
-    assert 'class="disposition">Accepted by A. Checker, 2025-03-14: lift is short and rare' in html
+    assert ('class="disposition">Accepted by A. Checker (checking engineer), 2025-03-14: lift is short and rare'
+            in html)
     assert "warnings accepted: 1 of" in html
 
 
