@@ -49,14 +49,6 @@ MANUAL_ITEMS = (
 
 SIGNOFF_ROLES = (("prepared_by", "Prepared by"), ("checked_by", "Checked by"), ("approved_by", "Approved by"))
 
-DUTY_COLUMNS = (("motor_torque", "T"), ("motor_speed", "n"), ("pressure_differential", "dp"),
-                ("inlet_pressure", "p_in"), ("flow_demand", "q"), ("shaft_power", "P"),
-                ("relief_torque", "T_relief"))
-
-SUPPLY_COLUMNS = (("flow_demand", "q_sum"), ("pump_delivery", "q_p"), ("flow_surplus", "dq"),
-                  ("working_pressure", "p_s"), ("pump_input_power", "P_in"), ("prime_mover_power", "P_pm"))
-
-
 def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: list | None = None,
             draw: Batch | None = None, review=None) -> dict:
     """Everything the report template shows, as plain values and formatted text.
@@ -129,19 +121,6 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
     }
 
 
-def _table(results, columns, system: str, first_head: list[str], first_cells: list[list[str]]) -> dict:
-    head = []
-    for key, symbol in columns:
-        sample = next((r.values[key] for r in results if key in r.values), None)
-        if sample is not None:
-            head.append({"key": key, "label": sample.label, "symbol": symbol})
-    rows = []
-    for r in results:
-        rows.append([show(r.values[h["key"]].value, r.values[h["key"]].kind, system, r.values[h["key"]].symbol)
-                     if h["key"] in r.values else "-" for h in head])
-    return {"head": head, "rows": rows, "first_head": first_head, "first_cells": first_cells}
-
-
 def _trace_block(anchor: str, title: str, values: dict, system: str, checks: list[dict], rows=None) -> dict:
     own = [c for c in checks if c["target"] == anchor]
     return {"anchor": anchor, "title": title, "grouped": False,
@@ -204,7 +183,7 @@ def _supply_context(o: Outcome, sup, system: str, checks: list[dict], fig_n, dra
         traces.append(_trace_block(f"supply-{slug(sup.id)}-all", "All modes", whole_values, system, checks))
     return {
         "id": sup.id, "anchor": f"supply-{slug(sup.id)}", "title": sup.title, "entered": entered,
-        "table": _table(modes, SUPPLY_COLUMNS, system, ["Mode"], [[x.mode] for x in modes]),
+        "has_modes": bool(modes),
         "drives": [{"id": d.id, "anchor": f"drive-{slug(d.id)}"} for d in m.drives if d.supply == sup.id],
         "charts": supply_charts(o, sup, modes, system, fig_n, draw) if modes else [],
         "traces": traces, **_split(checks, f"supply-{slug(sup.id)}"),
@@ -232,8 +211,6 @@ def _drive_context(o: Outcome, d, system: str, checks: list[dict]) -> dict:
         "id": d.id, "anchor": f"drive-{slug(d.id)}", "title": d.title, "supply": d.supply,
         "supply_anchor": f"supply-{slug(d.supply)}", "notes_html": to_html(d.notes),
         "entered": entered, "duties_entered": duty_rows(o, d, system),
-        "table": _table(duties, DUTY_COLUMNS, system, ["Duty point", "Direction"],
-                        [[x.duty, x.direction] for x in duties]),
         "charts": [], "back_pressure": None, "same_as": None,
         "traces": traces, **_split(checks, f"drive-{slug(d.id)}"),
     }
