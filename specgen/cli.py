@@ -82,11 +82,18 @@ def _diff_parser(sub) -> None:
 def _review_parser(sub) -> None:
     from specgen.review import VERDICTS
 
-    r = sub.add_parser("review", help="record a review of a spec's current content beside it")
+    r = sub.add_parser("review", help="record a review of a spec's current content beside it, or accept a warning")
     r.add_argument("spec", metavar="SPEC")
     r.add_argument("--by", required=True, metavar="NAME", help="reviewer's name")
     r.add_argument("--role", required=True, metavar="ROLE", help="reviewer's role, e.g. 'checking engineer'")
-    r.add_argument("--verdict", required=True, choices=VERDICTS)
+    r.add_argument("--verdict", choices=VERDICTS, help="the review's verdict (needed unless --accept-warning)")
+    r.add_argument("--accept-warning", metavar="CHECK",
+                   help="accept the warning of this check id (e.g. pressure_margin) for the current content, "
+                        "with --reason; a failing check cannot be accepted")
+    r.add_argument("--where", metavar="WHERE",
+                   help="where the accepted check applies, as the checklist writes it "
+                        "(e.g. 'drive track_left, duty point climb'); needed when it warns at several places")
+    r.add_argument("--reason", default="", metavar="TEXT", help="why the warning is acceptable (one line)")
     r.add_argument("--remarks", default="", metavar="TEXT")
     r.add_argument("--date", metavar="YYYY-MM-DD", help="review date, YYYY-MM-DD or YYYYMMDD [SOURCE_DATE_EPOCH, else today]")
     r.add_argument("--allow-outside-files", action="store_true",
@@ -155,7 +162,7 @@ def cmd_check(args) -> int:
         refuse_inputs(args.output, inputs)
     from specgen.review import status
 
-    reviews = [status(o.source.name, o.source) for o in outcomes]
+    reviews = [status(o.source.name, o.source, list(o.results.checks)) for o in outcomes]
     if args.format == "json":
         from specgen.present import json_out
 
@@ -200,13 +207,26 @@ def cmd_diff(args) -> int:
 
 def cmd_review(args) -> int:
     from specgen.pipeline import run_file
+    from specgen.dispositions import append_disposition
     from specgen.review import append_review, reviews_path
 
+    if args.accept_warning is None and args.verdict is None:
+        raise SpecError([Problem(Location("--verdict"), "", "give the review's verdict, or --accept-warning CHECK")])
+    if args.accept_warning is not None and args.verdict is not None:
+        raise SpecError([Problem(Location("--accept-warning"), "", "records one thing at a time: a verdict or "
+                                 "an accepted warning, not both")])
     o = run_file(args.spec, allow_outside_files=args.allow_outside_files)
+    if args.accept_warning is not None:
+        d = append_disposition(args.spec, o.source, o.machine.revision, list(o.results.checks), args.by, args.role,
+                               args.accept_warning, args.where, args.reason, args.date)
+        print(escape(f"recorded in {reviews_path(args.spec)}: warning {d.warning['check']} "
+                     f"({d.warning['where'] or 'whole machine'}) accepted by {d.who} on {d.date} for content "
+                     f"fingerprint {d.short} ({o.machine.title} rev {o.machine.revision})"))
+        return exits.OK
     r = append_review(args.spec, o.source, o.machine.revision, args.by, args.role, args.verdict,
                       args.remarks, args.date)
     print(escape(f"recorded in {reviews_path(args.spec)}: {r.verdict} by {r.who} on {r.date} "
-                 f"for fingerprint {r.short} ({o.machine.title} rev {o.machine.revision})"))
+                 f"for content fingerprint {r.short} ({o.machine.title} rev {o.machine.revision})"))
     return exits.OK
 
 
@@ -222,10 +242,11 @@ def cmd_report(args) -> int:
     if problems:
         raise SpecError(problems)
     _refuse_inputs_in_report(args.output, _inputs(paths, [o.source for o in outcomes]))
-    from specgen.review import reviews_for_report
+    from specgen.review import reviews_for_report, status
 
     written = report.write(outcomes, args.output, date=date, pdf=args.pdf,
-                           reviews_for=lambda o: reviews_for_report(o.source.name, o.source))
+                           reviews_for=lambda o: reviews_for_report(o.source.name, o.source),
+                           status_for=lambda o: status(o.source.name, o.source, list(o.results.checks)))
     for note in written.notes:
         print(f"note: {escape(note)}", file=sys.stderr)
     for o in outcomes:

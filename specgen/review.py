@@ -27,6 +27,26 @@ different value, so a different fingerprint, which errs on the side of asking fo
 A spec that names sizing parts files hashes {"spec": N, "parts_files": {name: loaded data}}
 instead, so a change to the shop's stock list asks for a new review too.
 
+A record may instead accept one warning (a disposition), with the optional ``warning`` key::
+
+    - name: A. Checker
+      role: checking engineer
+      date: '2025-03-14'
+      verdict: accepted_warning
+      fingerprint: 3f1c...e9          # the content the warning was accepted on
+      machine_revision: C
+      remarks: ''
+      warning:
+        check: pressure_margin         # the check's id
+        where: drive track_left, duty point climb   # the check's ``where``
+        value: 0.061237               # the check's value then (SI), to see when it moves
+        reason: bank climb is a short transient; compensator kept at 270 bar
+
+It is bound to the check id, where the check applies and the content fingerprint: when the spec's
+content or the check's value has changed since, the acceptance is stale and shown so. Only a
+warning can be accepted; a failing check cannot. A disposition never changes the review state of
+the spec (``status``) and never hides the warning: the outputs show both.
+
 This records a review; it is not a signature.
 """
 
@@ -50,7 +70,11 @@ REVIEWS_SUFFIX = ".reviews.yaml"
 REVIEW_FORMAT = 1
 VERDICTS = ("approved", "approved_with_remarks", "rejected")
 ACCEPTING = ("approved", "approved_with_remarks")
+ACCEPTED_WARNING = "accepted_warning"  # the verdict of a record that carries a ``warning``
 FIELDS = ("name", "role", "date", "verdict", "fingerprint", "machine_revision", "remarks")
+OPTIONAL = ("warning",)
+WARNING_FIELDS = ("check", "where", "value", "reason")
+VALUE_TOLERANCE = 1e-9  # relative: a value that moved less than this has not changed
 MAX_NAME = 200
 MAX_REMARKS = 5000
 
@@ -64,10 +88,15 @@ class Review:
     fingerprint: str
     machine_revision: str = ""
     remarks: str = ""
+    warning: dict | None = None  # a disposition: check, where, value (SI float or None), reason
 
     @property
     def short(self) -> str:
         return self.fingerprint[:12]
+
+    @property
+    def is_disposition(self) -> bool:
+        return self.warning is not None
 
     @property
     def who(self) -> str:
@@ -138,18 +167,38 @@ def _parse(source: Source) -> list[Review]:
         if not isinstance(e, dict):
             bad(("reviews", i), "a review record is a mapping of name, role, date, verdict, fingerprint")
             continue
-        for key in set(e) - set(FIELDS):
-            bad(("reviews", i, key), f"unknown key '{key}' (allowed: {', '.join(FIELDS)})")
+        for key in set(e) - set(FIELDS) - set(OPTIONAL):
+            bad(("reviews", i, key), f"unknown key '{key}' (allowed: {', '.join(FIELDS + OPTIONAL)})")
         for key in FIELDS[:5]:
             if key not in e:
                 bad(("reviews", i), f"'{key}' is required")
-        if e.get("verdict") is not None and e.get("verdict") not in VERDICTS:
-            bad(("reviews", i, "verdict"), f"{e['verdict']!r} is not one of: {', '.join(VERDICTS)}")
+        warning = _parse_warning(e.get("warning"), ("reviews", i, "warning"), bad) if "warning" in e else None
+        allowed = (ACCEPTED_WARNING,) if "warning" in e else VERDICTS
+        if e.get("verdict") is not None and e.get("verdict") not in allowed:
+            bad(("reviews", i, "verdict"), f"{e['verdict']!r} is not one of: {', '.join(allowed)}")
         if not problems:
-            out.append(Review(**{k: str(e.get(k, "") or "") for k in FIELDS}))
+            out.append(Review(**{k: str(e.get(k, "") or "") for k in FIELDS}, warning=warning))
     if problems:
         raise SpecError(problems)
     return out
+
+
+def _parse_warning(w, path: tuple, bad) -> dict | None:
+    """The ``warning`` of a disposition record: check and where (text), value (a number or null), reason."""
+    if not isinstance(w, dict):
+        bad(path, "a warning disposition is a mapping of check, where, value, reason")
+        return None
+    for key in set(w) - set(WARNING_FIELDS):
+        bad(path + (key,), f"unknown key '{key}' (allowed: {', '.join(WARNING_FIELDS)})")
+    for key in ("check", "where", "reason"):
+        if not isinstance(w.get(key), str) or (key != "where" and not w.get(key).strip()):
+            bad(path + (key,), "should be text" + ("" if key == "where" else " (not empty)"))
+    value = w.get("value")
+    if value is not None and (isinstance(value, bool) or not isinstance(value, (int, float))):
+        bad(path + ("value",), "should be a number or null")
+    return {"check": str(w.get("check", "")), "where": str(w.get("where", "")),
+            "value": None if value is None or isinstance(value, bool) else float(value),
+            "reason": str(w.get("reason", "")).strip()}
 
 
 def read_reviews(path: str | Path) -> list[Review]:
@@ -184,19 +233,25 @@ def append_review(spec_path: str | Path, source: Source, machine_revision: str, 
     record = Review(name=_one_line("--by", name, MAX_NAME), role=_one_line("--role", role, MAX_NAME),
                     date=review_date(when), verdict=verdict, fingerprint=spec_fingerprint(source),
                     machine_revision=machine_revision, remarks=remarks.strip())
+    _append(spec_path, record)
+    return record
+
+
+def _append(spec_path: str | Path, record: Review) -> None:
+    """Append ``record`` to the spec's reviews file, keeping every earlier byte and record."""
     target = reviews_path(spec_path)
     loaded = _load_reviews(target)
     old = _parse(loaded) if loaded is not None else []
     head = loaded.raw if loaded is not None else _header(Path(spec_path).name)
     if head and not head.endswith(b"\n"):
         head += b"\n"
-    entry = yaml.safe_dump([asdict(record)], sort_keys=False, allow_unicode=True, default_flow_style=False)
+    fields = {k: v for k, v in asdict(record).items() if k in FIELDS or v is not None}
+    entry = yaml.safe_dump([fields], sort_keys=False, allow_unicode=True, default_flow_style=False)
     raw = head + entry.encode("utf-8")
     if _parse(load_text(raw, str(target))) != old + [record]:
         raise SpecError([Problem(Location(str(target)), "", "the file does not end with its 'reviews' list; "
                                  "the new record cannot be appended without rewriting it")])
     write_atomic(target, raw)
-    return record
 
 
 def _header(spec_name: str) -> bytes:
@@ -225,6 +280,7 @@ class ReviewStatus:
     file: str
     matching: Review | None  # latest record for the current content
     last: Review | None  # latest record of all
+    accepted: tuple = ()  # Disposition of each warning accepted in the record
 
     @property
     def covered(self) -> bool:
@@ -242,26 +298,41 @@ class ReviewStatus:
                     f"fingerprint {last.short}; now {self.fingerprint[:12]})")
         return f"no review recorded (specgen review writes one to {self.file})"
 
+    @property
+    def disposition_lines(self) -> list[str]:
+        """One line a warning accepted in the record (and whether the acceptance still holds)."""
+        return [d.text for d in self.accepted]
+
     def as_dict(self) -> dict:
-        return {"state": self.state, "covered": self.covered, "fingerprint": self.fingerprint, "file": self.file,
-                "matching": asdict(self.matching) if self.matching else None,
-                "last": asdict(self.last) if self.last else None, "text": self.text}
+        out = {"state": self.state, "covered": self.covered, "fingerprint": self.fingerprint, "file": self.file,
+               "matching": _record_dict(self.matching), "last": _record_dict(self.last), "text": self.text}
+        if self.accepted:  # only where warnings were accepted: outputs without them stay as they were
+            out["dispositions"] = [d.as_dict() for d in self.accepted]
+        return out
 
 
-def status(spec_path: str | Path, source: Source) -> ReviewStatus:
-    """The review state of ``source`` (the loaded spec at ``spec_path``)."""
+def _record_dict(r: Review | None) -> dict | None:
+    return None if r is None else {k: v for k, v in asdict(r).items() if k in FIELDS or v is not None}
+
+
+def status(spec_path: str | Path, source: Source, checks: list | None = None) -> ReviewStatus:
+    """The review state of ``source`` (the loaded spec at ``spec_path``); with ``checks`` (the
+    outcome's), the warnings accepted in the record too. Accepted warnings do not count as reviews."""
     target = reviews_path(spec_path)
     records = read_reviews(target)
     if not records:  # nothing to match: spare a large spec the second parse of every quantity
         return ReviewStatus("unreviewed", None, str(target), None, None)
+    from specgen.dispositions import dispositions  # the record's accepted warnings, against the checks
+
     current = spec_fingerprint(source)
+    accepted = tuple(dispositions(records, current, checks or []))
+    records = [r for r in records if not r.is_disposition]
+    if not records:
+        return ReviewStatus("unreviewed", current, str(target), None, None, accepted)
     matching = next((r for r in reversed(records) if r.fingerprint == current), None)
-    last = records[-1] if records else None
-    if matching:
-        state = "reviewed" if matching.verdict in ACCEPTING else "rejected"
-    else:
-        state = "changed" if records else "unreviewed"
-    return ReviewStatus(state, current, str(target), matching, last)
+    last = records[-1]
+    state = ("reviewed" if matching.verdict in ACCEPTING else "rejected") if matching else "changed"
+    return ReviewStatus(state, current, str(target), matching, last, accepted)
 
 
 def reviews_for_report(spec_path: str | Path, source: Source) -> list[dict]:
@@ -272,4 +343,4 @@ def reviews_for_report(spec_path: str | Path, source: Source) -> list[dict]:
     current = spec_fingerprint(source)
     return [{"name": r.name, "role": r.role, "date": r.date, "verdict": r.verdict, "remarks": r.remarks,
              "fingerprint": r.fingerprint, "matches_current": r.fingerprint == current}
-            for r in read_reviews(reviews_path(spec_path))]
+            for r in read_reviews(reviews_path(spec_path)) if not r.is_disposition]

@@ -71,7 +71,7 @@ def test_report_and_review_accept_the_same_dates(tmp_path, monkeypatch, text, is
     spec = write_spec(tmp_path, minimal())
     code, err, page = _report(tmp_path, spec, text)
     assert code == 0, err
-    assert f'<td colspan="3">{iso}</td>' in page
+    assert f'Report date</th><td>{iso}</td>' in page
     code, err = _review(spec, text)
     assert code == 0, err
     assert f"date: '{iso}'" in reviews_path(spec).read_text()

@@ -185,3 +185,98 @@ def test_a_change_to_the_named_parts_file_needs_a_new_review(tmp_path):
     parts.write_text(yaml.safe_dump(data, sort_keys=False), encoding="utf-8")
     code, out, _ = run_cli("check", "--quiet", "--require-review", spec)
     assert code == 1 and "changed since the last review" in out
+
+
+def _warning_spec(tmp_path, torque="322 N*m"):
+    """The rig with a heavier lift: dp = 2*pi*322 N*m / (100 cm^3 * 0.9) = 224.8 bar, inlet 229.8 bar
+    against the 250 bar relief: margin (250 - 229.8) / 250 = 8.1 %, inside the 10 % warning band
+    (hand calculation, motor torque relation)."""
+    d = minimal()
+    d["drives"]["hoist"]["duty_points"]["lift"]["torque"] = torque
+    return write_spec(tmp_path, d), d
+
+
+ACCEPT = ("--by", "A. Checker", "--role", "checking engineer", "--date", "2025-03-14",
+          "--accept-warning", "pressure_margin", "--reason", "lift is short and rare")
+
+
+def test_a_warning_is_accepted_with_a_reason_and_shown_beside_it(tmp_path):
+    spec, _ = _warning_spec(tmp_path)
+    doc = json.loads(run_cli("check", "--format", "json", spec)[1])
+    warn = [c for c in doc["checks"] if c["id"] == "pressure_margin"][0]
+    assert warn["status"] == "warn"
+    code, out, err = run_cli("review", spec, *ACCEPT)
+    assert code == 0, err
+    assert "warning pressure_margin (drive hoist, duty point lift) accepted by A. Checker" in out
+    record = read_reviews(reviews_path(spec))[0]
+    assert record.verdict == "accepted_warning" and record.warning["where"] == "drive hoist, duty point lift"
+    assert record.warning["reason"] == "lift is short and rare"
+    # the outputs keep the warning and say it was accepted; the review state is untouched by it
+    code, out, _ = run_cli("check", spec)
+    assert code == 0 and "WARN  pressure_margin" in out
+    assert "Accepted: warning pressure_margin (drive hoist, duty point lift) accepted by A. Checker" in out
+    assert "Review: no review recorded" in out
+    doc = json.loads(run_cli("check", "--format", "json", spec)[1])
+    assert [c["status"] for c in doc["checks"] if c["id"] == "pressure_margin"] == ["warn"]
+    (d,) = doc["review"]["dispositions"]
+    assert d["accepted"] and d["stale"] == "" and d["reason"] == "lift is short and rare"
+    assert d["fingerprint"] == doc["review"]["fingerprint"]
+    out_dir = tmp_path / "rep"
+    assert run_cli("report", spec, "-o", out_dir)[0] == 0
+    html = (out_dir / "index.html").read_text(encoding="utf-8")
+    assert "Accepted</span>" not in html  # the word sits inside the note with who and why
+    assert ('class="disposition">Accepted by A. Checker (checking engineer), 2025-03-14: lift is short and rare'
+            in html)
+    assert "warnings accepted: 1 of" in html
+
+
+def test_an_acceptance_goes_stale_when_the_value_or_the_content_changes(tmp_path):
+    spec, d = _warning_spec(tmp_path)
+    assert run_cli("review", spec, *ACCEPT)[0] == 0
+    # another value of the spec changes: the content fingerprint moves, the check's value does not
+    d["supplies"]["main"]["prime_mover_power"] = "31 kW"
+    write_spec(tmp_path, d)
+    (disp,) = json.loads(run_cli("check", "--format", "json", spec)[1])["review"]["dispositions"]
+    assert not disp["accepted"] and "content changed" in disp["stale"] and "value moved" not in disp["stale"]
+    # the lift gets heavier: the value behind the warning moves too
+    d["drives"]["hoist"]["duty_points"]["lift"]["torque"] = "325 N*m"
+    write_spec(tmp_path, d)
+    code, out, _ = run_cli("check", spec)
+    assert "STALE" in out and "the check's value moved" in out
+    out_dir = tmp_path / "rep"
+    assert run_cli("report", spec, "-o", out_dir)[0] == 0
+    html = (out_dir / "index.html").read_text(encoding="utf-8")
+    assert 'class="disposition stale">Accepted earlier, NOW STALE' in html and "1 stale" in html
+
+
+def test_a_failing_check_cannot_be_accepted(tmp_path):
+    # 400 N*m: dp = 2*pi*400 / (100 cm^3 * 0.9) = 279.3 bar, inlet 284.3 bar above the 250 bar relief
+    spec, _ = _warning_spec(tmp_path, "400 N*m")
+    code, _, err = run_cli("review", spec, *ACCEPT)
+    assert code == 2 and "a failing check cannot be accepted" in err
+    assert len(err.strip().splitlines()) == 1 and not reviews_path(spec).exists()
+
+
+@pytest.mark.parametrize("args, message", [
+    (("--accept-warning", "max_speed", "--reason", "x"), "passes there: there is no warning to accept"),
+    (("--accept-warning", "no_such_check", "--reason", "x"), "no check 'no_such_check'"),
+    (("--accept-warning", "pressure_margin", "--reason", " "), "--reason: give one line"),
+    (("--accept-warning", "pressure_margin", "--where", "drive crane", "--reason", "x"), "does not apply at"),
+    (("--accept-warning", "pressure_margin", "--verdict", "approved", "--reason", "x"), "not both"),
+])
+def test_bad_acceptances_exit_2_and_write_nothing(tmp_path, args, message):
+    spec, _ = _warning_spec(tmp_path)
+    code, _, err = run_cli("review", spec, "--by", "A", "--role", "x", *args)
+    assert code == 2 and message in err and not reviews_path(spec).exists()
+
+
+def test_acceptances_do_not_count_as_reviews_and_old_records_stay_valid(tmp_path):
+    spec, _ = _warning_spec(tmp_path)
+    assert run_cli("review", spec, *REVIEW)[0] == 0  # a record in the old form, no warning key
+    before = reviews_path(spec).read_bytes()
+    assert b"warning" not in before
+    assert run_cli("review", spec, *ACCEPT)[0] == 0
+    assert reviews_path(spec).read_bytes().startswith(before)
+    code, out, _ = run_cli("check", "--require-review", spec)
+    assert code == 0 and "Review: reviewed: approved by A. Checker" in out
+    assert [r["verdict"] for r in reviews_for_report(spec, load_file(spec))] == ["approved"]

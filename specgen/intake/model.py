@@ -491,6 +491,7 @@ class Machine:
     display_units: str
     page_size: str
     signoff: dict = field(default_factory=dict)
+    document_number: str = ""  # the drawing-register number of the printed report, if the firm uses one
     fluid: Fluid | None = None
     supplies: tuple[Supply, ...] = ()
     drives: tuple[Drive, ...] = ()

@@ -19,6 +19,10 @@ GREYS = ("#ffffff", "#d0d0d0", "#f2f2f2", "#a8a8a8", "#e4e4e4", "#bcbcbc", "#8c8
 HATCHES = ("", "///", "---", "xx", "\\\\\\", "++", "|||", "////", "xxx")
 WIDTH_IN = 6.4  # fits the text width of A4 and Letter with 18 mm margins
 HEIGHT_IN = 3.3
+# Two charts side by side (a drive's torque and speed charts): each drawn at this width, so that
+# its text prints at the same size as a full-width chart's.
+HALF_WIDTH_IN = 3.45
+HALF_HEIGHT_IN = 2.55
 
 STYLE = {
     "svg.hashsalt": "specgen-report",
@@ -149,12 +153,13 @@ class Frame:
             ax.yaxis.set_label_coords(-(self.left - LABEL + 4) / self.width, 0.5)
 
 
-def new_frame(height_in: float, title: str, left: float, bottom: float, right: float = EDGE) -> Frame:
+def new_frame(height_in: float, title: str, left: float, bottom: float, right: float = EDGE,
+              width_in: float = WIDTH_IN) -> Frame:
     """A figure and its axes, with room above for ``title`` (in as many lines as it takes)."""
     from matplotlib.figure import Figure
 
-    fig = Figure(figsize=(WIDTH_IN, height_in))
-    w_pt, h_pt = WIDTH_IN * 72, height_in * 72
+    fig = Figure(figsize=(width_in, height_in))
+    w_pt, h_pt = width_in * 72, height_in * 72
     title = wrap(title, w_pt - left - EDGE, STYLE["axes.titlesize"])
     top = TITLE + TITLE_LINE * title.count("\n")
     ax = fig.add_axes((left / w_pt, bottom / h_pt, 1 - (left + right) / w_pt, 1 - (bottom + top) / h_pt))

@@ -19,8 +19,9 @@ import re
 from dataclasses import dataclass
 from typing import Sequence
 
-from specgen.present.chart_frame import (EDGE, GREYS, HATCHES, HEIGHT_IN, INK, KEY_ROW, LABEL, STYLE, TICK, TICK_TEXT,
-                                         TITLE, WIDTH_IN, Frame, left_margin, new_frame, text_width, ticks, wrap)
+from specgen.present.chart_frame import (EDGE, GREYS, HALF_HEIGHT_IN, HALF_WIDTH_IN, HATCHES, INK, KEY_ROW,
+                                         LABEL, STYLE, TICK, TICK_TEXT, TITLE, WIDTH_IN, Frame, left_margin, new_frame,
+                                         text_width, ticks, wrap)
 from specgen.units import significant
 
 
@@ -115,12 +116,19 @@ def _draw(fig_id: str, build) -> str:
         return _svg(build(), fig_id)
 
 
-def _merge_limits(limits: Sequence[Limit], span: float) -> list[tuple[float, str, str]]:
+LIMIT_TEXT_GAP = 10.0  # points between two limit lines for their labels to stand apart
+
+
+def _merge_limits(limits: Sequence[Limit], span: float, axis_pt: float = 0.0) -> list[tuple[float, str, str]]:
     """Limits that fall (almost) on one spot share one label so their texts do not overprint:
-    "relief setting = continuous rating 280.0 bar" when the values agree."""
+    "relief setting = continuous rating 280.0 bar" when the values agree. ``axis_pt``, the length
+    of the axis in points: lines closer than LIMIT_TEXT_GAP on it count as one spot."""
+    near = max(0.025, LIMIT_TEXT_GAP / axis_pt if axis_pt else 0.0)
     groups: list[list[Limit]] = []
     for lim in sorted(limits, key=lambda x: x.at):
-        if groups and abs(lim.at - groups[-1][0].at) <= 0.025 * span:
+        # a group's label is a line of text a distinct value: the next line must clear all of them
+        lines = len({x.value for x in groups[-1]}) if groups else 1
+        if groups and abs(lim.at - groups[-1][0].at) <= near * lines * span:
             groups[-1].append(lim)
         else:
             groups.append([lim])
@@ -128,8 +136,9 @@ def _merge_limits(limits: Sequence[Limit], span: float) -> list[tuple[float, str
     for g in groups:
         if len({lim.value for lim in g}) == 1:
             text = " = ".join(lim.label for lim in g) + f" {g[0].value}"
-        else:  # close but different: one line of text each, side by side
-            text = "\n".join(f"{lim.label} {lim.value}" for lim in g)
+        else:  # close but different: one line of text a value, side by side
+            values = list(dict.fromkeys(lim.value for lim in g))
+            text = "\n".join(" = ".join(lim.label for lim in g if lim.value == v) + f" {v}" for v in values)
         out.append((g[0].at, g[0].style, text))
     return out
 
@@ -170,30 +179,60 @@ def _points(ax, points: Sequence[Point], span: tuple[float, float], size_pt: tup
                     ha=ha, va=va, fontsize=7, zorder=6, bbox=_CLEAR)
 
 
-def _key(ax, line_label: str, points: Sequence[Point]) -> None:
-    """A small key for what is not labelled on the chart itself: the line and the point shapes."""
+LINE_WIDTHS = (1.4, 0.7, 2.2, 0.45)  # one displacement's line from the next, in the key too
+
+
+def _key_labels(lines: Sequence[Line], points: Sequence[Point]) -> list[str]:
+    labels = [line.label for line in lines] + ["driving duty point"]
+    return labels + ["overrunning duty point"] if any(p.overrunning for p in points) else labels
+
+
+KEY_ITEM = 7 * (2.0 + 0.8 + 2.0)  # a key entry's handle, its pad and the gap to the next, in points
+KEY_LINE = 7 * 1.25 + 7 * 0.5  # one more row of the key
+
+
+def _key_columns(labels: Sequence[str], width_pt: float) -> int:
+    """As many key entries a row as fit the figure's width (all in one row where they fit)."""
+    for ncol in range(len(labels), 0, -1):
+        rows = [labels[k:k + ncol] for k in range(0, len(labels), ncol)]
+        if max(sum(text_width(t) + KEY_ITEM for t in row) for row in rows) <= width_pt - 2 * EDGE:
+            return ncol
+    return 1
+
+
+def _key(ax, lines: Sequence[Line], points: Sequence[Point], ncol: int) -> None:
+    """A small key for what is not labelled on the chart itself: each displacement's line (told
+    apart by its weight) and the point shapes."""
     from matplotlib.lines import Line2D
 
-    handles = [Line2D([], [], color=INK, linewidth=1.4, label=line_label),
-               Line2D([], [], color=INK, marker="o", markersize=4.5, linestyle="none", label="driving duty point")]
+    handles = [Line2D([], [], color=INK, linewidth=LINE_WIDTHS[k % len(LINE_WIDTHS)], label=line.label)
+               for k, line in enumerate(lines)]
+    handles.append(Line2D([], [], color=INK, marker="o", markersize=4.5, linestyle="none",
+                          label="driving duty point"))
     if any(p.overrunning for p in points):
         handles.append(Line2D([], [], marker="s", markersize=5, markerfacecolor="white", markeredgecolor=INK,
                               linestyle="none", label="overrunning duty point"))
-    # At the foot of the figure, in the row the margins keep for it (KEY_ROW).
-    ax.figure.legend(handles=handles, loc="lower center", bbox_to_anchor=(0.5, 0.0), ncol=len(handles))
+    # At the foot of the figure, in the rows the margins keep for it (KEY_ROW, KEY_LINE a row more).
+    ax.figure.legend(handles=handles, loc="lower center", bbox_to_anchor=(0.5, 0.0), ncol=ncol)
 
 
 def _vertical_limits(ax, limits: Sequence[Limit], span: float) -> None:
     # Labels stand at the foot of their line: the displacement line runs high on the right.
-    for at, style, text in _merge_limits(limits, span):
+    width_pt = ax.get_position().width * ax.figure.get_figwidth() * 72
+    height_pt = ax.get_position().height * ax.figure.get_figheight() * 72
+    for at, style, text in _merge_limits(limits, span, width_pt):
         ax.axvline(at, color=INK, linewidth=1.0, linestyle=LIMIT_STYLES[style], zorder=3)
+        # a label up its line stays inside the axes: set smaller (down to 5 pt) where it is long
+        longest = max(text_width(line, 6.8) for line in text.split("\n"))
+        size = max(5.0, min(6.8, 6.8 * (height_pt - 8) / longest)) if longest else 6.8
         ax.annotate(text, (at, 0.0), xycoords=("data", "axes fraction"), xytext=(-3, 4),
-                    textcoords="offset points", rotation=90, ha="right", va="bottom", fontsize=6.8, bbox=_CLEAR)
+                    textcoords="offset points", rotation=90, ha="right", va="bottom", fontsize=size, bbox=_CLEAR)
 
 
 def _horizontal_limits(ax, limits: Sequence[Limit], span: float) -> None:
     # An upper limit is labelled at the left, where the speed line is low; a lower one at the right.
-    for at, style, text in _merge_limits(limits, span):
+    height_pt = ax.get_position().height * ax.figure.get_figheight() * 72
+    for at, style, text in _merge_limits(limits, span, height_pt):
         ax.axhline(at, color=INK, linewidth=1.0, linestyle=LIMIT_STYLES[style], zorder=3)
         left = style != "min"
         ax.annotate(text, (0.0 if left else 1.0, at), xycoords=("axes fraction", "data"),
@@ -219,12 +258,11 @@ class Line:
 
 
 def _lines(ax, lines: Sequence[Line], x_max: float) -> None:
-    widths = (1.4, 0.9, 2.0, 0.6)
+    """One line a displacement; the key names each by its weight (at the right edge, where the
+    lines leave the chart, the limit labels stand)."""
     for k, line in enumerate(lines):
-        ax.plot([0, x_max], [0, line.slope * x_max], color=INK, linewidth=widths[k % len(widths)], zorder=4)
-        if len(lines) > 1:  # several displacements: each line named where it leaves the chart
-            ax.annotate(line.label, (x_max, line.slope * x_max), xytext=(-3, 2), textcoords="offset points",
-                        ha="right", va="bottom", fontsize=6.5, bbox=_CLEAR, annotation_clip=True)
+        ax.plot([0, x_max], [0, line.slope * x_max], color=INK, linewidth=LINE_WIDTHS[k % len(LINE_WIDTHS)],
+                zorder=4)
 
 
 def _line_text(lines: Sequence[Line], x_unit: str, y_unit: str) -> str:
@@ -232,13 +270,13 @@ def _line_text(lines: Sequence[Line], x_unit: str, y_unit: str) -> str:
 
 
 def _numeric_frame(height_in: float, title: str, x_range: tuple[float, float], y_range: tuple[float, float],
-                   bottom: float) -> Frame:
+                   bottom: float, width_in: float = WIDTH_IN) -> Frame:
     """A frame whose margins hold the tick labels it will carry, with those ticks set."""
     y_vals, y_labels = ticks(*y_range, height_in * 72 - bottom - TITLE, 7 * 2)
     left = left_margin(y_labels)
-    x_vals, x_labels = ticks(*x_range, WIDTH_IN * 72 - left - EDGE, 7 * 3)
+    x_vals, x_labels = ticks(*x_range, width_in * 72 - left - EDGE, 7 * 3)
     right = max(EDGE, text_width(x_labels[-1]) / 2 + 1) if x_labels else EDGE  # the last label's overhang
-    frame = new_frame(height_in, title, left, bottom, right)
+    frame = new_frame(height_in, title, left, bottom, right, width_in)
     frame.ax.set_yticks(y_vals, y_labels)
     frame.ax.set_xticks(x_vals, x_labels)
     frame.ax.set_xlim(*x_range)
@@ -248,13 +286,19 @@ def _numeric_frame(height_in: float, title: str, x_range: tuple[float, float], y
 
 def _line_chart(fig_id: str, title: str, *, x_label: str, y_label: str, x_max: float, y_max: float,
                 lines: Sequence[Line], points: Sequence[Point], paint_limits) -> str:
+    """A drive's line chart, drawn half the text width wide: two stand side by side on the page."""
+    labels = _key_labels(lines, points)
+    ncol = _key_columns(labels, HALF_WIDTH_IN * 72)
+    key = KEY_ROW + KEY_LINE * (-(-len(labels) // ncol) - 1)
+
     def build():
-        frame = _numeric_frame(HEIGHT_IN, title, (0, x_max), (0, y_max), KEY_ROW + TICK + TICK_TEXT + LABEL)
+        frame = _numeric_frame(HALF_HEIGHT_IN, title, (0, x_max), (0, y_max), key + TICK + TICK_TEXT + LABEL,
+                               HALF_WIDTH_IN)
         ax = frame.ax
         _lines(ax, lines, x_max)
         paint_limits(ax)
         _points(ax, points, (x_max, y_max), (frame.width, frame.height))
-        _key(ax, lines[0].label if len(lines) == 1 else "constant displacement (named at the right)", points)
+        _key(ax, lines, points, ncol)
         frame.label(x_label, y_label)
         return frame.fig
 
@@ -316,14 +360,17 @@ def _supply_line(ax, at: float, text: str) -> None:
                 ha="right", va="bottom", fontsize=7, bbox=_CLEAR)
 
 
+BAR_HEIGHT_IN = 2.2  # a supply's bars by mode: a few bars need less height than a line chart
+
+
 def _mode_axes(title: str, modes: Sequence[str], y_max: float, y_label: str, right_pt: float = 0.0,
                y_min: float = 0.0):
     """Axes for bars by operating mode, ``right_pt`` of room kept at the right for a key; ``y_min``
     below zero for a bar that is negative (a pump driven by its load)."""
-    h_pt = HEIGHT_IN * 72
+    h_pt = BAR_HEIGHT_IN * 72
     bottom = TICK + TICK_TEXT + LABEL
     y_vals, y_labels = ticks(y_min, y_max, h_pt - bottom - TITLE, 7 * 2)
-    frame = new_frame(HEIGHT_IN, title, left_margin(y_labels), bottom, EDGE + right_pt)
+    frame = new_frame(BAR_HEIGHT_IN, title, left_margin(y_labels), bottom, EDGE + right_pt)
     ax = frame.ax
     ax.grid(axis="x", visible=False)
     ax.set_yticks(y_vals, y_labels)
@@ -412,7 +459,7 @@ def margin_overview(fig_id: str, title: str, rows: Sequence[MarginRow]) -> Chart
         size = max(5.5, 7.0 * room / widest)
     names = [wrap(r.label, room, size) for r in ordered]
     lines = max([n.count("\n") + 1 for n in names] + [1])
-    height = 0.9 + (0.17 + 0.1 * (lines - 1)) * max(len(ordered), 3)
+    height = 0.9 + (0.13 + 0.1 * (lines - 1)) * max(len(ordered), 3)
     x_min = min([-0.1] + [1.15 * r.margin for r in ordered])
 
     x_range = (x_min * 100, MARGIN_CLIP * 100 + 12)
@@ -481,7 +528,7 @@ def oil_temperature_vs_time(fig_id: str, title: str, *, x_unit: str, y_unit: str
     x_max = max(times[-1] if times else 0.0, 1e-9)
 
     def build():
-        frame = _numeric_frame(HEIGHT_IN, title, (0, x_max), y_range, TICK + TICK_TEXT + LABEL)
+        frame = _numeric_frame(BAR_HEIGHT_IN, title, (0, x_max), y_range, TICK + TICK_TEXT + LABEL)
         ax = frame.ax
         ax.plot(list(times), list(temperatures), color=INK, linewidth=1.2, zorder=4)
         _horizontal_limits(ax, [limit], y_range[1] - y_range[0])

@@ -1,8 +1,8 @@
 """The paged PDF of the report, for the design file (optional extra: ``pip install 'specgen[pdf]'``).
 
 WeasyPrint lays the same HTML out on pages. The report's print stylesheet does the paging: the
-page size from the spec (A4 or Letter), "page N of M" with the machine, revision and spec
-fingerprint in every page footer (CSS @page margin boxes), and no chart or table row split across
+page size from the spec (A4 or Letter), "page N of M" with the document number, machine, revision and
+file SHA-256 in every page footer (CSS @page margin boxes), and no chart or table row split across
 a page break (break-inside: avoid). Without the extra the HTML is still written and a note says
 how to add the PDF.
 """

@@ -147,6 +147,7 @@ def render(o: Outcome, quiet: bool = False, review=None) -> str:
     """``review``: the spec's review.ReviewStatus, shown under the headline when given."""
     system = o.machine.display_units
     out = [headline(o)] + ([f"Review: {escape(review.text)}"] if review is not None else [])
+    out += [f"Accepted: {escape(line)}" for line in (review.disposition_lines if review is not None else [])]
     if not quiet:
         out += ["", "Drives at each duty point (motor shaft)"]
         rows = []

@@ -10,8 +10,8 @@ from __future__ import annotations
 from typing import Sequence
 
 from specgen.present.chart_frame import GREYS, HEIGHT_IN, INK, KEY_ROW, LABEL, TICK, TICK_TEXT
-from specgen.present.charts import (_CLEAR, LIMIT_STYLES, Chart, Limit, Point, _draw, _horizontal_limits, _key, _num,
-                                   _numeric_frame, _point_text, _points)
+from specgen.present.charts import (_CLEAR, LIMIT_STYLES, Chart, Limit, Line, Point, _draw, _horizontal_limits, _key,
+                                   _key_labels, _num, _numeric_frame, _point_text, _points)
 
 
 def _name_line(ax, x: float, y: float, text: str) -> None:
@@ -53,7 +53,8 @@ def tractive_effort_vs_speed(fig_id: str, title: str, *, x_unit: str, y_unit: st
                     bbox=_CLEAR)
         ax.plot(list(speeds), list(envelope), color=INK, linewidth=2.0, zorder=4)
         _points(ax, points, (x_max, y_max), (frame.width, frame.height))
-        _key(ax, "tractive effort envelope", points)
+        key_lines = [Line("tractive effort envelope", 0.0)]
+        _key(ax, key_lines, points, len(_key_labels(key_lines, points)))
         frame.label(f"ground speed v [{x_unit}]", f"tractive effort F [{y_unit}]")
         return frame.fig
 

@@ -1,7 +1,9 @@
 """The review report: a static HTML page (inline CSS and SVG, no script) built from one Outcome.
 
-    values.py        numbers as shown (units, percent, plain ratios) and formulas with numbers put in
+    values.py        numbers as shown (units typeset, percent, plain ratios) and formulas with numbers put in
     entered.py       the "as entered" tables: the spec's own text beside the value read from it
+    grouped.py       a trace of several cases: each relation once, a column of results a case
+    checklist.py     the checks' rows, the passing checks by id, page 1's figures and review state
     chart_data.py    the numbers each chart needs, from the Results, and the calls to charts.py
     page_context.py  everything the template shows: checks, supplies, drives, modes, assumed values,
                      checklist, symbols, sign-off

@@ -11,8 +11,7 @@ from __future__ import annotations
 from specgen.pipeline import Outcome
 from specgen.present import charts
 from specgen.present.chart_batch import Batch
-from specgen.present.report.values import plain, show
-from specgen.units import convert
+from specgen.present.report.values import plain, show, unit_text
 
 MARGIN_CHECKS = {
     "pressure_margin": ("inlet vs pressure limit", "given"),
@@ -22,7 +21,8 @@ MARGIN_CHECKS = {
     "min_speed": ("speed vs min rating", "above"),
 }
 
-MARGIN_ROWS_PER_CHART = 48
+MARGIN_ROWS_PER_CHART = 24
+MAX_STACKED_DRIVES = 8  # a supply's flow bars show each drive's share up to this many drives
 
 
 def _displacement(r) -> float | None:
@@ -37,7 +37,7 @@ def drive_charts(o: Outcome, drive, duties, system: str, fig_n, draw: Batch) -> 
     (= Vg * eta_hm / 2 pi) and n / q (= eta_v / Vg), one line per displacement used.
     """
     sup = o.machine.supply(drive.supply)
-    unit = {k: convert(0.0, k, system)[1] for k in ("pressure", "torque", "flow", "speed")}
+    unit = {k: unit_text(k, system) for k in ("pressure", "torque", "flow", "speed")}
     driving = [r for r in duties if r.direction != "overrunning"] or duties
     p_out = max(r["back_pressure"] for r in driving)  # the highest back pressure leaves the least differential
     dr = o.results.drive_result(drive.id)
@@ -95,7 +95,7 @@ def drive_charts(o: Outcome, drive, duties, system: str, fig_n, draw: Batch) -> 
 
 def supply_charts(o: Outcome, sup, modes, system: str, fig_n, draw: Batch) -> list:
     """Flow demand and pump input power by mode for one supply, with its delivery and prime mover power."""
-    q_unit, w_unit = convert(0.0, "flow", system)[1], convert(0.0, "power", system)[1]
+    q_unit, w_unit = unit_text("flow", system), unit_text("power", system)
     by_check = {(c.id, c.supply, c.mode): c.status for c in o.results.checks if c.supply}
     titles = {m.id: m.id for m in o.machine.modes}
     drives: list[str] = []
@@ -105,6 +105,8 @@ def supply_charts(o: Outcome, sup, modes, system: str, fig_n, draw: Batch) -> li
                 drives.append(c.drive)
     flows = [[sum(plain(c.flow, "flow", system) for c in r.contributions if c.drive == d) for d in drives]
              for r in modes]
+    if len(drives) > MAX_STACKED_DRIVES:  # too many to tell apart: each mode's total, drives in the trace
+        drives, flows = [f"all {len(drives)} drives"], [[sum(row)] for row in flows]
     names = [titles[r.mode] for r in modes]
     flow = draw(
         charts.flow_by_mode, fig_n(), f"{sup.title}: flow demand by operating mode", unit=q_unit, modes=names,
@@ -141,16 +143,14 @@ def margin_rows(o: Outcome) -> list[charts.MarginRow]:
 
 
 def margin_charts(o: Outcome, fig_n, draw: Batch) -> list:
-    """Every margin, smallest first, on as few charts of MARGIN_ROWS_PER_CHART rows as hold them."""
+    """The smallest margins, smallest first, on one chart of at most MARGIN_ROWS_PER_CHART rows: the
+    ones a reviewer looks at. Every margin is in the checklist, whatever the size of the machine."""
     rows = sorted(margin_rows(o), key=lambda r: (r.margin, r.label))
-    count = -(-len(rows) // MARGIN_ROWS_PER_CHART)  # charts needed; rows shared evenly between them
-    size = -(-len(rows) // max(count, 1))
-    parts = [rows[k:k + size] for k in range(0, len(rows), size)]
-    out = []
-    for k, part in enumerate(parts, start=1):
-        suffix = f" (part {k} of {len(parts)})" if len(parts) > 1 else ""
-        out.append(draw(charts.margin_overview, fig_n(), f"Pressure and speed margins, smallest first{suffix}", part))
-    return out
+    if not rows:
+        return []
+    part = rows[:MARGIN_ROWS_PER_CHART]
+    suffix = f" (the {len(part)} smallest of {len(rows)})" if len(rows) > len(part) else ""
+    return [draw(charts.margin_overview, fig_n(), f"Pressure and speed margins, smallest first{suffix}", part)]
 
 
 def cycle_chart(o: Outcome, cycle, system: str, fig_n, draw: Batch):
@@ -159,7 +159,7 @@ def cycle_chart(o: Outcome, cycle, system: str, fig_n, draw: Batch):
     if not cycle.series:
         return None
     limit = o.machine.max_oil_temperature.value
-    unit = convert(limit, "temperature", system)[1]
+    unit = unit_text("temperature", system)
     return draw(
         charts.oil_temperature_vs_time, fig_n(), f"Duty cycle {cycle.cycle}: oil temperature from ambient",
         x_unit="min", y_unit=unit, times=[t / 60.0 for t, _ in cycle.series],

@@ -7,7 +7,7 @@ number the report computes with or charts comes from the model and the Results.
 from __future__ import annotations
 
 from specgen.pipeline import Outcome
-from specgen.present.report.values import show
+from specgen.present.report.values import show, typeset
 
 
 def as_entered(data, path: tuple) -> str | None:
@@ -32,7 +32,7 @@ def _row(label: str, data, path: tuple, value, kind: str | None, system: str, as
     else:
         shown = show(value, kind, system, symbol or ("eta" if kind == "ratio" else ""), label)
     return {"label": label, "path": ".".join(path), "entered": as_entered(data, path), "shown": shown,
-            "assumed": assumed, "basis": basis}
+            "assumed": assumed, "basis": typeset(basis)}
 
 
 def _leaves(node, path: tuple) -> list[tuple[tuple, str]]:

@@ -37,8 +37,16 @@ def environment():
     from markupsafe import Markup
 
     env.filters["css_string"] = css_string
+    env.filters["dotted"] = dotted
     env.globals["Markup"] = Markup  # for the charts' SVG, which charts.py builds and escapes
     return env
+
+
+def dotted(text: str):
+    """A key path that may break after each dot and nowhere else: "drives.<wbr>winch.<wbr>motor"."""
+    from markupsafe import Markup, escape
+
+    return Markup(str(escape(text)).replace(".", ".<wbr>"))
 
 
 def css_string(text: str):
@@ -52,13 +60,14 @@ def css_string(text: str):
 
 
 def render(o: Outcome, *, fp: Fingerprint | None = None, date: str | None = None,
-           reviews: list | None = None) -> str:
-    """The report page for one outcome, as HTML text."""
+           reviews: list | None = None, review=None) -> str:
+    """The report page for one outcome, as HTML text. ``review``: the spec's review.ReviewStatus
+    (its state and the warnings accepted in the record), when there is one."""
     from markupsafe import Markup
 
     fp = fp or fingerprint(o.source.raw, _spec_path(o))
     batch = Batch()
-    ctx = context(o, fp=fp, date=date, reviews=reviews, draw=batch)
+    ctx = context(o, fp=fp, date=date, reviews=reviews, draw=batch, review=review)
     batch.start()
     try:  # the templates load while the charts are drawn
         template = environment().get_template("report.html")
@@ -113,7 +122,7 @@ def _refuse_outside(root: Path, dest: Path) -> None:
 
 
 def write(outcomes: list[Outcome], outdir: str | Path, *, date: str | None = None, pdf: bool = False,
-          reviews_for=None) -> Written:
+          reviews_for=None, status_for=None) -> Written:
     """Write the report(s) into ``outdir``: one spec gives OUTDIR/index.html (and report.pdf with
     ``pdf``); several give one subfolder each plus OUTDIR/index.html listing them with their verdict.
 
@@ -138,7 +147,7 @@ def write(outcomes: list[Outcome], outdir: str | Path, *, date: str | None = Non
             folder.mkdir(parents=True, exist_ok=True)
             fp = fingerprint(o.source.raw, _spec_path(o))
             reviews = reviews_for(o) if reviews_for else None
-            html = render(o, fp=fp, date=date, reviews=reviews)
+            html = render(o, fp=fp, date=date, reviews=reviews, review=status_for(o) if status_for else None)
             (folder / REPORT_FILE).write_text(html, encoding="utf-8")
             rel.append(Path(name) / REPORT_FILE if name else Path(REPORT_FILE))
             if make_pdf:

@@ -60,8 +60,11 @@ def prime_mover_sections(o: Outcome, system: str, checks: list[dict]) -> list[di
             here = anchor(mover.id, x.mode)
             values = [replace(v, label=f"{v.label}, supply {sid}") for sid, vals in x.per_supply.items()
                       for k, v in vals.items() if k == "prime_mover_torque"] + list(x.values.values())
-            traces.append({"anchor": here, "title": f"Mode {x.mode}", "rows": [trace_row(v, system) for v in values],
-                           "checks": [c for c in checks if c["target"] == here]})
+            own = [c for c in checks if c["target"] == here]
+            traces.append({"anchor": here, "title": f"Mode {x.mode}", "grouped": False,
+                           "rows": [trace_row(v, system) for v in values], "checks": own,
+                           "problems": [c for c in own if c["status"] != "pass"],
+                           "passing": [c for c in own if c["status"] == "pass"]})
         out.append({"id": mover.id, "title": mover.title, "anchor": anchor(mover.id), "noun": NOUN[mover.kind],
                     "entered": _entered(mover, system), "pumps": pumps, "rows": table, "traces": traces,
                     "checks": [c for t in traces for c in t["checks"]]})

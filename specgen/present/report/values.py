@@ -3,6 +3,9 @@
 ``show`` formats one value with its unit in the machine's display units (units.format_si);
 ``substitute`` writes a trace's formula with each input's value in place of its symbol;
 ``trace_row`` is one line of a calculation trace as the template shows it.
+
+Units are typeset here, at the report's edge, as engineers write them (cm\u00b3, \u00b0C, N\u00b7m,
+mm\u00b2/s); the text and JSON outputs keep the ASCII spellings of units.DISPLAY.
 """
 
 from __future__ import annotations
@@ -14,6 +17,32 @@ from specgen.units import convert, format_si, significant
 from specgen.trace import Input, Value
 
 STATUS_WORD = {"pass": "PASS", "warn": "WARN", "fail": "FAIL"}
+
+# ASCII unit spellings (units.DISPLAY) as a printed document writes them. One table: every number
+# the report shows passes through ``show`` and every sentence with units through ``typeset``.
+TYPESET = {
+    "cm^3/rev": "cm\u00b3/rev", "in^3/rev": "in\u00b3/rev", "degC": "\u00b0C", "degF": "\u00b0F",
+    "N*m": "N\u00b7m", "lbf*in": "lbf\u00b7in", "mm^2/s": "mm\u00b2/s", "m/s^2": "m/s\u00b2",
+    "ft/s^2": "ft/s\u00b2", "kg/m^3": "kg/m\u00b3", "lb/ft^3": "lb/ft\u00b3", "kg*m^2": "kg\u00b7m\u00b2",
+    "lb*ft^2": "lb\u00b7ft\u00b2", "m^2": "m\u00b2", "ft^2": "ft\u00b2", "W/(m^2*K)": "W/(m\u00b2\u00b7K)",
+    "kJ/(kg*K)": "kJ/(kg\u00b7K)", "cm^3": "cm\u00b3", "m^3": "m\u00b3", "mm^2": "mm\u00b2", "kN*m": "kN\u00b7m",
+}
+# A spelling counts only as a whole word after a number or a space: "N*m" in "2*N*m" of a formula is
+# never reached, since formulas are not typeset.
+_TYPESET_RE = re.compile(r"(?<![\w^*/])(" + "|".join(map(re.escape, sorted(TYPESET, key=len, reverse=True)))
+                         + r")(?![\w^*])")
+
+
+def typeset(text: str) -> str:
+    """Units in a sentence or a shown value as engineers write them.
+
+    Example: typeset("820.0 cm^3/rev at 40 degC, 1200 N*m") -> "820.0 cm\u00b3/rev at 40 \u00b0C, 1200 N\u00b7m"."""
+    return _TYPESET_RE.sub(lambda m: TYPESET[m.group(1)], text) if text else text
+
+
+def unit_text(kind: str, system: str) -> str:
+    """The display unit of ``kind`` as the report prints it: unit_text("torque", "SI") -> "N\u00b7m"."""
+    return typeset(convert(0.0, kind, system)[1])
 
 
 def slug(text: str) -> str:
@@ -34,7 +63,7 @@ def show(value: float | None, kind: str, system: str, symbol: str = "", label: s
         return significant(value)
     if kind == "ratio" and symbol and not _is_efficiency(symbol, label):
         return significant(value)
-    return format_si(value, kind, system)
+    return typeset(format_si(value, kind, system))
 
 
 def plain(value: float, kind: str, system: str) -> float:
@@ -97,12 +126,12 @@ def substitute(value: Value, system: str) -> list[Segment]:
 def trace_row(value: Value, system: str, entered: str | None = None) -> dict:
     """One line of a calculation trace as the template shows it: formula, substitution, result, source."""
     return {
-        "key": value.key, "label": value.label, "symbol": value.symbol, "formula": value.formula,
-        "words": value.words, "substituted": substitute(value, system),
+        "key": value.key, "label": typeset(value.label), "symbol": value.symbol, "formula": value.formula,
+        "words": typeset(value.words), "substituted": substitute(value, system),
         "inputs": [{"symbol": i.symbol, "label": i.label, "text": _input_text(i, system) if i.kind != "ratio"
                     else show(i.value, i.kind, system, i.symbol, i.label), "assumed": i.assumed}
                    for i in value.inputs],
         "result": show(value.value, value.kind, system, value.symbol, value.label),
-        "source": value.source, "note": value.note, "assumed": value.assumed, "given": not value.formula,
+        "source": typeset(value.source), "note": typeset(value.note), "assumed": value.assumed, "given": not value.formula,
         "entered": entered,
     }

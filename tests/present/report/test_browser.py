@@ -7,6 +7,7 @@ Chromium binary is on PATH.
 
 from __future__ import annotations
 
+import html as htmllib
 import re
 import shutil
 import subprocess
@@ -79,10 +80,45 @@ def test_report_prints_to_a_paged_pdf_with_footers(rendered):
     assert done.returncode == 0 and pdf.is_file(), done.stderr[-2000:]
     assert console_messages(done.stderr) == []
     pages = pypdf.PdfReader(pdf).pages
-    # The example is a long document (six drives, each with its traces): tens of pages, not one or hundreds.
-    assert 20 <= len(pages) <= 150
+    # A document an engineer reads and signs: the demo (six drives, two supplies, seven modes, 116
+    # checks) fits in at most 20 A4 pages, and is more than a summary page.
+    assert 10 <= len(pages) <= 20
     assert abs(float(pages[0].mediabox.width) - 595.3) < 2  # the example's page size is A4 (210 mm)
     for k in (0, len(pages) // 2, len(pages) - 1):
         text = pages[k].extract_text()
         assert f"page {k + 1} of {len(pages)}" in text
-        assert "RH-4" in text and "spec sha256" in text
+        assert "RH-4" in text and "file SHA-256" in text
+
+
+def _headings(page: str) -> set[str]:
+    """The text of every heading, visible caption and table head of the page, as pypdf reads a line."""
+    def flat(html: str) -> str:
+        return " ".join(htmllib.unescape(re.sub(r"<[^>]+>", " ", html)).split())
+
+    out = {flat(h) for h in re.findall(r"<h[1-6][^>]*>(.*?)</h[1-6]>", page, re.S)}
+    out |= {flat(c) for c in re.findall(r"<caption>(.*?)</caption>", page, re.S)}
+    for head in re.findall(r"<thead>(.*?)</thead>", page, re.S):
+        out.add(flat(head))
+    return {h for h in out if h}
+
+
+def test_printed_demo_is_at_most_20_pages_and_no_page_ends_on_a_heading(rendered):
+    """Print rules: a heading, caption or table head goes over with what it names; the sign-off
+    never stands alone on the last page."""
+    pypdf = pytest.importorskip("pypdf")
+    pdf = rendered / "rules.pdf"
+    done = chromium(rendered / "profile-rules", f"--print-to-pdf={pdf}", "--no-pdf-header-footer",
+                    (rendered / "report" / "index.html").as_uri())
+    assert done.returncode == 0 and pdf.is_file(), done.stderr[-2000:]
+    page = (rendered / "report" / "index.html").read_text(encoding="utf-8")
+    heads = _headings(page)
+    assert "Checklist" in heads and "Quantity Relation Unit harvest transit climb" in heads  # the scan can hit
+    pages = pypdf.PdfReader(pdf).pages
+    assert len(pages) <= 20
+    texts = [p.extract_text() for p in pages]
+    for k, text in enumerate(texts[:-1], start=1):
+        last = " ".join(text.strip().splitlines()[-1].split())
+        assert last not in heads, f"page {k} ends on the heading {last!r}"
+    last_page = texts[-1]
+    assert "Sign-off" in last_page and "Manual review items" in last_page  # signatures under the items
+    assert "Fluid under pressure" in texts[0] + texts[1]  # the cautions on page 1 or 2

@@ -15,7 +15,7 @@ def _torque() -> Value:
 
 def test_formula_gets_each_input_in_place_of_its_symbol_and_marks_assumed_ones():
     parts = substitute(_torque(), "SI")
-    assert "".join(p.text for p in parts) == "T = (1200 N*m) / (30.00 * 0.9400)"
+    assert "".join(p.text for p in parts) == "T = (1200 N\u00b7m) / (30.00 * 0.9400)"
     assert [p.text for p in parts if p.assumed] == ["0.9400"]  # the defaulted gear efficiency
 
 
