@@ -33,7 +33,7 @@ def test_trace_per_mode_holds_the_sums_and_the_check_links_there(tmp_path):
     o, html = page(tmp_path, shared_engine())
     trace = block(html, "prime-mover-diesel-dig")
     assert "P_sum = 38.00 kW + 30.00 kW" in trace
-    assert "T_pm = (108.5 N*m) * 1.200" in trace  # pump B's torque referred to the engine shaft
+    assert "T_pm = (108.5 N·m) * 1.200" in trace  # pump B's torque referred to the engine shaft
     start = html.index('id="prime-mover-diesel-dig"')
     links = html[start:html.index("</div>", start)]
     assert "Shared prime mover covers its pumps" in links  # the check is listed under its trace
