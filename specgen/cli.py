@@ -49,6 +49,11 @@ def _parser() -> argparse.ArgumentParser:
                    help="exit 1 unless a recorded review accepts each spec's current content")
     c.add_argument("--allow-outside-files", action="store_true",
                    help="let a spec name files (a sizing parts file) outside its own folder tree")
+    _variant_option(c)
+    c.add_argument("--sensitivity", action="store_true",
+                   help="also rank, for every check's margin, the inputs that move it most (each numeric input of "
+                        "the model moved by --step of its value; json: the whole table)")
+    _step_option(c)
     _diff_parser(sub)
     _review_parser(sub)
     _report_parser(sub)
@@ -61,6 +66,18 @@ def _parser() -> argparse.ArgumentParser:
     i.add_argument("path", nargs="?", default="machine.yaml")
     i.add_argument("--force", action="store_true", help="overwrite an existing file")
     return ap
+
+
+def _variant_option(p) -> None:
+    p.add_argument("--variant", action="append", metavar="ID", dest="variants",
+                   help="run only this design variant of the spec (repeat for more) beside the base design "
+                        "[every variant the spec declares]")
+
+
+def _step_option(p) -> None:
+    p.add_argument("--step", default="1 %", metavar="STEP",
+                   help="with --sensitivity: how far each input moves, a percentage or fraction of its value "
+                        "(up to 50 %%) [1 %%]")
 
 
 def _diff_parser(sub) -> None:
@@ -104,6 +121,11 @@ def _report_parser(sub) -> None:
     r.add_argument("--strict", action="store_true", help="count warnings as failures")
     r.add_argument("--allow-outside-files", action="store_true",
                    help="let a spec name files (a sizing parts file) outside its own folder tree")
+    _variant_option(r)
+    r.add_argument("--sensitivity", action="store_true",
+                   help="add the sensitivity of the weakest margins to the report (tornado charts): each numeric "
+                        "input moved by --step of its value")
+    _step_option(r)
 
 
 def _emit(text: str, output: str | None, inputs=()) -> None:
@@ -131,13 +153,14 @@ def _inputs(paths: list[str], sources) -> list[Path]:
     return out
 
 
-def _evaluate_all(paths: list[str], allow_outside_files: bool = False):
+def _evaluate_all(paths: list[str], allow_outside_files: bool = False, variants: list[str] | None = None):
     from specgen.pipeline import run_file
 
     outcomes, problems = [], []
     for path in paths:
         try:
-            outcomes.append(run_file(path, allow_outside_files=allow_outside_files))
+            outcomes.append(run_file(path, allow_outside_files=allow_outside_files,
+                                     variants=tuple(variants) if variants else None))
         except SpecError as exc:
             problems += exc.problems
     return outcomes, problems
@@ -145,9 +168,14 @@ def _evaluate_all(paths: list[str], allow_outside_files: bool = False):
 
 def cmd_check(args) -> int:
     paths = spec_paths(args.specs)
-    outcomes, problems = _evaluate_all(paths, args.allow_outside_files)
+    step = _step(args.step) if args.sensitivity else None
+    outcomes, problems = _evaluate_all(paths, args.allow_outside_files, args.variants)
     if problems:
         raise SpecError(problems)
+    if step is not None:
+        from specgen.sensitivity import with_sensitivity
+
+        outcomes = [with_sensitivity(o, step) for o in outcomes]
     inputs = _inputs(paths, [o.source for o in outcomes])
     if args.output:
         from specgen.output import refuse_inputs
@@ -176,6 +204,19 @@ def cmd_check(args) -> int:
                 print(f"review required: {escape(o.source.name)}: {escape(r.text)}", file=sys.stderr)
             code = exits.review_status(code, r.covered)
     return code
+
+
+def _step(text: str | None) -> float | None:
+    """The sensitivity step as a fraction ('1 %' -> 0.01, '0.5%', 0.02); exit 2 when it is not one."""
+    if text is None:
+        return None
+    from specgen.sensitivity import parse_step
+
+    step = parse_step(text)
+    if step is None:
+        raise SpecError([Problem(Location("--step"), "", f"'{text}' is not a step between 0 and 50 %, "
+                                                                 "e.g. '1 %' or 0.01")])
+    return step
 
 
 def cmd_diff(args) -> int:
@@ -218,9 +259,14 @@ def cmd_report(args) -> int:
     date = given_date(args.date, os.environ)
     report.start_drawing()  # chart workers import matplotlib while the specs are checked; write stops them
     paths = spec_paths(args.specs)
-    outcomes, problems = _evaluate_all(paths, args.allow_outside_files)
+    step = _step(args.step) if args.sensitivity else None
+    outcomes, problems = _evaluate_all(paths, args.allow_outside_files, args.variants)
     if problems:
         raise SpecError(problems)
+    if step is not None:
+        from specgen.sensitivity import with_sensitivity
+
+        outcomes = [with_sensitivity(o, step) for o in outcomes]
     _refuse_inputs_in_report(args.output, _inputs(paths, [o.source for o in outcomes]))
     from specgen.review import reviews_for_report
 

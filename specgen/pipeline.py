@@ -27,6 +27,7 @@ class Outcome:
     machine: Machine
     results: Results
     variants: tuple[VariantOutcome, ...] = ()  # the design variants that ran, in the spec's order
+    sensitivity: object = None  # sensitivity.Sensitivity of the base design's margins, when asked for
 
     @property
     def verdict(self) -> str:

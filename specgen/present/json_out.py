@@ -92,6 +92,29 @@ def document(o: Outcome, review=None) -> dict:
                     "display_units": system},
         "verdict": r.verdict,
         "counts": r.counts(),
+        **results_part(r, system),
+        **(variants_part(o) if o.variants else {}),
+        **(sensitivity_part(o) if o.sensitivity is not None else {}),
+        **({"review": review.as_dict()} if review is not None else {}),
+        "cautions": [{"title": t, "text": x} for t, x in CAUTIONS],
+    }
+
+
+def variants_part(o: Outcome) -> dict:
+    from specgen.present.variants_json import variants_document
+
+    return variants_document(o)
+
+
+def sensitivity_part(o: Outcome) -> dict:
+    from specgen.present.sensitivity_out import document as sensitivity_document
+
+    return {"sensitivity": sensitivity_document(o.sensitivity)}
+
+
+def results_part(r, system: str) -> dict:
+    """Every computed value, check, corner and assumed input of one design (the base or a variant)."""
+    return {
         "duty_points": [
             {"drive": d.drive, "duty": d.duty, "direction": d.direction,
              "values": {k: _value(v, system) for k, v in d.values.items()}}
@@ -125,8 +148,6 @@ def document(o: Outcome, review=None) -> dict:
         "checks": [_check(c, system, bool(r.corners)) for c in r.checks],
         **({"corners": [_corner(k, system) for k in r.corners]} if r.corners else {}),
         "assumed": assumed_list(r, system),
-        **({"review": review.as_dict()} if review is not None else {}),
-        "cautions": [{"title": t, "text": x} for t, x in CAUTIONS],
     }
 
 
