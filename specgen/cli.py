@@ -276,6 +276,8 @@ def cmd_report(args) -> int:
         print(f"note: {escape(note)}", file=sys.stderr)
     for o in outcomes:
         print(headline(o))
+        for v in o.variants:  # a failing variant is said, never hidden behind the base design's verdict
+            print(escape(f"  variant {v.id}: {v.results.verdict.upper()}  {v.title}"))
     for path in written.files:
         print(f"wrote {escape(path)}")
     return exits.outcomes_status(outcomes, args.strict)

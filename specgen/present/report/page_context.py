@@ -18,7 +18,9 @@ from specgen.present.chart_batch import Batch
 from specgen.present.markdown_text import to_html
 from specgen.present.report.chart_data import cycle_chart, drive_charts, margin_charts, supply_charts
 from specgen.present.report.entered import drive_rows, duty_rows, fluid_rows, given_text, supply_rows
+from specgen.present.report.sensitivity import sensitivity_context
 from specgen.present.report.values import STATUS_WORD, show, slug, trace_row
+from specgen.present.report.variants import variants_context
 from specgen.results import Check
 
 
@@ -80,6 +82,7 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
                    for x in map(r.mode_result, (md.id for md in m.modes)) if x is not None and x.values]
     cycles = [_cycle_context(o, c, system, checks, fig_n, draw) for c in r.cycles]
     fluid_values = r.fluid.values
+    extras = {"variants": variants_context(o), "sensitivity": sensitivity_context(o, fig_n, draw)}
     if own_batch:
         draw.draw()
     fp_footer = f"{m.title[:80]} - rev {m.revision} - spec sha256 {fp.short}"
@@ -106,6 +109,7 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
         # Recorded reviews of this spec (a list of mappings: name, role, date, verdict, fingerprint,
         # machine_revision, remarks); shown in the template's "reviews" block, empty by default.
         "reviews": list(reviews or []),
+        **extras,
     }
 
 
