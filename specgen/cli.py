@@ -84,9 +84,11 @@ def _diff_parser(sub) -> None:
     from specgen.diff import FAIL_ON
     from specgen.present.diff_out import FORMATS, MAX_CHARS
 
-    d = sub.add_parser("diff", help="compare two revisions of a spec: inputs, results and checks")
-    d.add_argument("old", metavar="OLD", help="spec file, or REV:path read from git (e.g. main:specs/loader.yaml)")
-    d.add_argument("new", metavar="NEW", help="spec file, or REV:path read from git")
+    d = sub.add_parser("diff", help="compare two revisions of a spec, or two of its design variants: inputs, results "
+                                    "and checks")
+    d.add_argument("old", metavar="OLD", help="spec file, or REV:path read from git (e.g. main:specs/loader.yaml); "
+                                              "add #ID for one of its design variants (spec.yaml#larger_reel)")
+    d.add_argument("new", metavar="NEW", help="spec file, or REV:path read from git; add #ID for a design variant")
     d.add_argument("--format", choices=FORMATS, default="text")
     d.add_argument("-o", "--output", metavar="FILE", help="write the output to FILE instead of standard output")
     d.add_argument("--max-chars", type=int, default=MAX_CHARS, metavar="N",
@@ -225,15 +227,22 @@ def cmd_diff(args) -> int:
     from specgen.pipeline import evaluate
     from specgen.present.diff_out import render
 
+    from specgen.gitsource import split_variant
+    from specgen.variants import as_outcome, without_variants
+
     sides, problems = [], []
     for arg in (args.old, args.new):  # both sides read, so every problem is told at once
+        spec, vid = split_variant(arg)
         try:
-            sides.append(evaluate(read_spec(arg)))
+            o = evaluate(read_spec(spec), variants=(vid,) if vid else ())
+            sides.append(as_outcome(o, vid, arg) if vid else o)
         except SpecError as exc:
             problems += exc.problems
     if problems:
         raise SpecError(problems)
-    files = [a for a in (args.old, args.new) if split_revision(a) is None]
+    if any(split_variant(a)[1] for a in (args.old, args.new)):  # a base design against a variant: inputs only
+        sides = [without_variants(o) for o in sides]
+    files = [s for s in (split_variant(a)[0] for a in (args.old, args.new)) if split_revision(s) is None]
     d = compare(*sides)
     _emit(render(d, args.format, args.max_chars), args.output, _inputs(files, [s.source for s in sides]))
     return exits.diff_status(d, args.fail_on)

@@ -20,12 +20,13 @@ and with it the main pump's load in harvest mode, grows too.
 
 from __future__ import annotations
 
+import copy
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import Callable
 
 from specgen.corners import _keys, run_corners
-from specgen.intake.build_corners import Corner
+from specgen.intake.build_corners import GROUPS, Corner
 from specgen.intake.build_variants import Variant
 from specgen.intake.model import Machine
 from specgen.results import Results, most_severe
@@ -142,3 +143,49 @@ def _differing(results: tuple[Results, ...]) -> list[StatusRow]:
             by_key.setdefault(key, [None] * len(results))[n] = c.status
             names.setdefault(key, f"{c.id} ({c.where})" if c.where else c.id)
     return [StatusRow(names[k], tuple(s)) for k, s in by_key.items() if len(set(s)) > 1]
+
+
+def as_outcome(outcome, vid: str, name: str):
+    """``outcome`` (pipeline.Outcome) seen as the variant ``vid`` alone, for the revision diff: its
+    machine and results, and the spec's data with the variant's replacements written in (so the
+    diff of inputs names them), under ``name`` (e.g. "spec.yaml#larger_reel")."""
+    v = next(x for x in outcome.variants if x.id == vid)
+    data = copy.deepcopy(_plain(outcome.source.data))
+    for key, value in outcome.source.data["variants"][vid]["set"].items():
+        if key in GROUPS:
+            section, rest = GROUPS[key]
+            paths = [(section, owner) + rest for owner in data.get(section, {})]
+        else:
+            paths = [tuple(key.split("."))]
+        for path in paths:
+            _put(data, path, _plain(value))
+    del data["variants"]
+    return replace(outcome, source=replace(outcome.source, name=name, data=data), machine=v.machine,
+                   results=v.results, variants=())
+
+
+def without_variants(outcome):
+    """``outcome`` with no ``variants`` key in its spec data, so a diff against one variant lists only
+    what the variant replaces."""
+    if "variants" not in outcome.source.data:
+        return outcome
+    data = {k: v for k, v in outcome.source.data.items() if k != "variants"}
+    return replace(outcome, source=replace(outcome.source, data=data))
+
+
+def _plain(value):
+    if isinstance(value, dict):
+        return {str(k): _plain(x) for k, x in value.items()}
+    if isinstance(value, list):
+        return [_plain(x) for x in value]
+    return value
+
+
+def _put(data: dict, path: tuple, value) -> None:
+    node = data
+    for part in path[:-1]:
+        node = node.setdefault(part, {})
+    if isinstance(value, dict) and isinstance(node.get(path[-1]), dict):
+        node[path[-1]] = {**node[path[-1]], **value}
+    else:
+        node[path[-1]] = value
