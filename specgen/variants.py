@@ -164,6 +164,13 @@ def as_outcome(outcome, vid: str, name: str):
                    results=v.results, variants=())
 
 
+def views(outcome) -> list:
+    """Each variant that ran as an Outcome of its own (pipeline.Outcome), named ``spec.yaml#id``:
+    for outputs that list one spec's checks (JUnit, CI annotations)."""
+    return [replace(outcome, source=replace(outcome.source, name=f"{outcome.source.name}#{v.id}"),
+                    machine=v.machine, results=v.results, variants=()) for v in outcome.variants]
+
+
 def without_variants(outcome):
     """``outcome`` with no ``variants`` key in its spec data, so a diff against one variant lists only
     what the variant replaces."""
