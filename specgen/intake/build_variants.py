@@ -33,6 +33,7 @@ from typing import Callable
 from specgen.corners import apply
 from specgen.intake import schema
 from specgen.intake.build_corners import GROUPS, Target, _targets, _walk
+from specgen.intake.build_loads import grade_angle
 from specgen.intake.model import Machine
 from specgen.intake.quantities import Builder
 
@@ -95,17 +96,38 @@ def _variant_targets(b: Builder, machine: Machine, key: str, value, here: tuple)
         return _displacement(b, machine, path[:-1], {path[-1]: value}, here)
     if path[-1] == "efficiency_table" and len(path) >= 2 and path[-2] == "motor":
         return _table(b, machine, path, value, here)
+    if path[-1] == "grade" and "load" in path:
+        return _grade(b, machine, path, value, here)
     info = schema.field_at(path, value)
     if info is None:
         b.fail(here, f"'{key}' is not a field of the spec (e.g. drives.<id>.motor.displacement, "
                      f"supplies.<id>.relief_setting, or a group: {', '.join(GROUPS)})")
         return []
     if info.kind is not None or info.quantity:
-        found = _targets(b, machine, key, value, "set", here, fixed={}, noun=NOUN)
-        if found and found[-1].steps[-1] == ("attr", "grade"):  # the trace shows a grade as written
-            found.append(Target(key + "_text", found[-1].steps[:-1] + (("attr", "grade_text"),), "set", str(value)))
-        return found
+        return _targets(b, machine, key, value, "set", here, fixed={}, noun=NOUN)
     return _plain(b, machine, path, value, here)
+
+
+def _grade(b: Builder, machine: Machine, path: tuple, value, here: tuple) -> list[Target]:
+    """A load's grade as build_loads reads it ('8 %' or '4 deg' -> angle in rad), and as written for the trace."""
+    steps, _, problem = _walk(machine, path)
+    if problem:
+        b.fail(here, problem)
+        return []
+    if not isinstance(value, str):
+        b.fail(here, f"{value!r} has no unit; write the grade as a percentage ('8 %') or an angle ('4 deg')")
+        return []
+    percent = "%" in value
+    read = b.parse(value, "ratio" if percent else "angle", here)
+    if read is None:
+        return []
+    try:
+        angle = grade_angle(read, percent)
+    except ValueError as exc:
+        b.fail(here, str(exc))
+        return []
+    spec = ".".join(path)
+    return [Target(spec, steps, "set", angle), Target(spec, steps[:-1] + (("attr", "grade_text"),), "set", value)]
 
 
 def _displacement(b: Builder, machine: Machine, path: tuple, value, here: tuple) -> list[Target]:
