@@ -17,7 +17,7 @@ from typing import Sequence
 
 from specgen.present.chart_frame import EDGE, GREYS, INK, KEY_ROW, LABEL, TICK, TICK_TEXT, WIDTH_IN, new_frame, \
     text_width, ticks, wrap
-from specgen.present.charts import Chart, _draw, _num
+from specgen.present.charts import Chart, _draw
 
 NAMES = 0.5  # the most of the width the input names may take
 
@@ -61,9 +61,9 @@ def tornado(fig_id: str, title: str, rows: Sequence[TornadoRow], step_text: str)
         if down:
             ax.barh([y for y, _ in down], [x for _, x in down], 0.34, color=GREYS[3], edgecolor=INK,
                     linewidth=0.5, zorder=3)
-        for y, x in up + down:
-            ax.text(x, y, f" {_num(x)} " if x >= 0 else f" {_num(x)} ", va="center", ha="left" if x >= 0 else "right",
-                    fontsize=6, zorder=5)
+        for y, x in up + down:  # each bar's value beyond its end
+            ax.annotate(_signed(x), (x, y), xytext=(2 if x >= 0 else -2, 0), textcoords="offset points",
+                        va="center", ha="left" if x >= 0 else "right", fontsize=6, zorder=5)
         ax.axvline(0, color=INK, linewidth=1.0, zorder=4)
         beside = offset_copy(ax.get_yaxis_transform(), fig=frame.fig, x=-TICK, y=0.0, units="points")
         for y, name in zip(ys, names):
@@ -84,4 +84,5 @@ def tornado(fig_id: str, title: str, rows: Sequence[TornadoRow], step_text: str)
 
 
 def _signed(x: float | None) -> str:
-    return "not computed" if x is None else ("+" if x >= 0 else "") + _num(x)
+    """Percentage points to three figures with their sign: -0.8, +0.812."""
+    return "not computed" if x is None else f"{x:+.3g}"
