@@ -115,6 +115,15 @@ def compare(base_title: str, base: Results, variants: tuple[VariantOutcome, ...]
                       tuple(r.verdict for r in results), tuple(rows), tuple(_differing(results)))
 
 
+def own_problems(base: Results, variant: Results) -> list:
+    """A variant's checks worth saying beside the base design's: every failure, and each warning the base
+    design does not give at the same place (those are said once, with the base design), worst first."""
+    warned = {(c.id, c.drive, c.duty, c.supply, c.mode, c.cycle) for c in base.checks if c.status == "warn"}
+    found = [c for c in variant.checks if c.status == "fail" or c.status == "warn" and (
+        c.id, c.drive, c.duty, c.supply, c.mode, c.cycle) not in warned]
+    return sorted(found, key=lambda c: c.status != "fail")
+
+
 def _worst_margin(r: Results, cid: str) -> float | None:
     found = [c.margin for c in r.checks if c.id == cid and c.margin is not None and math.isfinite(c.margin)]
     return min(found) if found else None
@@ -168,7 +177,7 @@ def views(outcome) -> list:
     """Each variant that ran as an Outcome of its own (pipeline.Outcome), named ``spec.yaml#id``:
     for outputs that list one spec's checks (JUnit, CI annotations)."""
     return [replace(outcome, source=replace(outcome.source, name=f"{outcome.source.name}#{v.id}"),
-                    machine=v.machine, results=v.results, variants=()) for v in outcome.variants]
+                    machine=v.machine, results=v.results, variants=()) for v in getattr(outcome, "variants", ())]
 
 
 def without_variants(outcome):

@@ -93,8 +93,8 @@ def document(o: Outcome, review=None) -> dict:
         "verdict": r.verdict,
         "counts": r.counts(),
         **results_part(r, system),
-        **(variants_part(o) if o.variants else {}),
-        **(sensitivity_part(o) if o.sensitivity is not None else {}),
+        **(variants_part(o) if getattr(o, "variants", ()) else {}),
+        **(sensitivity_part(o) if getattr(o, "sensitivity", None) is not None else {}),
         **({"review": review.as_dict()} if review is not None else {}),
         "cautions": [{"title": t, "text": x} for t, x in CAUTIONS],
     }

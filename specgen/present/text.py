@@ -143,11 +143,11 @@ def render(o: Outcome, quiet: bool = False, review=None) -> str:
     problems = checks_lines(o, only_problems=quiet)
     out += problems
     out += corner_lines(o) if not quiet else []
-    if o.variants:
+    if getattr(o, "variants", ()):
         from specgen.present.variants_text import variant_lines
 
         out += variant_lines(o, quiet)
-    if o.sensitivity is not None:
+    if getattr(o, "sensitivity", None) is not None:
         from specgen.present.sensitivity_out import text_lines
 
         out += text_lines(o.sensitivity)

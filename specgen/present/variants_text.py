@@ -5,10 +5,9 @@ from __future__ import annotations
 
 from specgen.pipeline import Outcome
 from specgen.present.text import table
-from specgen.results import RANK
 from specgen.safe_text import escape
 from specgen.units import format_si
-from specgen.variants import compare
+from specgen.variants import compare, own_problems
 
 
 def variant_lines(o: Outcome, quiet: bool = False) -> list[str]:
@@ -29,11 +28,8 @@ def variant_lines(o: Outcome, quiet: bool = False) -> list[str]:
         if c.differing:
             out += ["", "Checks whose status differs between the variants"]
             out += table(["check"] + list(c.columns), [[d.name] + [s or "-" for s in d.statuses] for d in c.differing])
-    base = {(x.id, x.drive, x.duty, x.supply, x.mode, x.cycle): x.status for x in o.results.checks}
     for v in o.variants:
-        # every failure; a warning only where the base design does not give the same one (listed above)
-        problems = sorted((x for x in v.results.checks if x.status == "fail" or x.status == "warn" and base.get(
-            (x.id, x.drive, x.duty, x.supply, x.mode, x.cycle)) != "warn"), key=lambda x: -RANK[x.status])
+        problems = own_problems(o.results, v.results)
         if problems:
             out += ["", f"Variant {escape(v.id)}: failures, and warnings the base design does not have"]
             out += [f"{x.status.upper():4}  {x.id:20} {escape(x.where)}"

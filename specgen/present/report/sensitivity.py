@@ -10,7 +10,7 @@ from specgen.sensitivity import SHOWN_INPUTS
 
 def sensitivity_context(o: Outcome, fig_n, draw) -> dict | None:
     """None without a sensitivity table (the report then has no such section)."""
-    s = o.sensitivity
+    s = getattr(o, "sensitivity", None)
     if s is None:
         return None
     step = f"{s.step * 100:g} %"

@@ -11,7 +11,7 @@ from specgen.variants import compare
 
 def variants_context(o: Outcome) -> dict | None:
     """None when no variant ran (the report then has no such section)."""
-    if not o.variants:
+    if not getattr(o, "variants", ()):
         return None
     system = o.machine.display_units
     c = compare(o.machine.title, o.results, o.variants)
