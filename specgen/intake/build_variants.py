@@ -190,14 +190,15 @@ def _plain(b: Builder, machine: Machine, path: tuple, value, here: tuple) -> lis
     if isinstance(found, bool) or isinstance(value, bool):
         ok = isinstance(found, bool) and isinstance(value, bool)
     elif isinstance(found, (int, float)):
-        ok = isinstance(value, (int, float)) and math.isfinite(value) and value > 0
+        ok = isinstance(value, (int, float)) and math.isfinite(value) and value > 0 and (
+            not isinstance(found, int) or float(value).is_integer())  # a count stays a whole number
     else:
         ok = isinstance(value, str) and (found is None or isinstance(found, str))
     if not ok:
         b.fail(here, f"{value!r} does not fit '{spec}' (it holds {found!r} in the base design)")
         return []
     if isinstance(found, (int, float)) and not isinstance(found, bool):
-        value = type(found)(value) if isinstance(found, int) and float(value).is_integer() else float(value)
+        value = int(value) if isinstance(found, int) else float(value)
     return [Target(spec, steps, "set", value)]
 
 

@@ -29,3 +29,23 @@ def test_a_bad_replacement_is_located_at_its_key(tmp_path, key, value, says):
     where = int(line.removeprefix("error: ").split(":")[1])
     assert key.split(".")[0] in text[where - 1] and f"variants.bad.set.{key}" in line
     assert says in line
+
+
+def test_a_number_must_be_positive_and_a_count_whole(tmp_path):
+    data = minimal()
+    data["drives"]["hoist"]["gear_stage"] = {"ratio": 20}
+    for value, ok in ((2.5, True), (-3, False), (25, True)):
+        data["variants"] = {"v": {"set": {"drives.hoist.gear_stage.ratio": value}}}
+        code, _, err = run_cli("check", write_spec(tmp_path, data))
+        assert (code != 2) == ok, err
+    duty = data["drives"]["hoist"]["duty_points"]["lift"]
+    del duty["torque"], duty["speed"]
+    duty["load"] = {"winch": {"line_pull": "10 kN", "line_speed": "0.5 m/s", "drum_diameter": "300 mm",
+                              "rope_diameter": "10 mm", "layer": 2}}
+    for value, ok in ((2.5, False), (3, True)):
+        data["variants"] = {"v": {"set": {"drives.hoist.duty_points.lift.load.winch.layer": value}}}
+        code, _, err = run_cli("check", write_spec(tmp_path, data))
+        assert (code != 2) == ok, err
+    assert "does not fit 'drives.hoist.duty_points.lift.load.winch.layer'" in run_cli(
+        "check", write_spec(tmp_path, dict(data, variants={"v": {"set": {
+            "drives.hoist.duty_points.lift.load.winch.layer": 2.5}}})))[2]
