@@ -162,10 +162,19 @@ def _no_text(value, kind) -> str:
     return ""  # the checks' sentences are not read here: only their margins
 
 
-def margins(machine: Machine) -> dict[tuple, tuple[str, str, float]]:
-    """Every finite margin of the checks at the nominal point: key -> (name, check id, margin)."""
-    results = resolve(machine)
-    checks = [c for fn in CHECKS for c in fn(machine, results, _no_text)]
+def _checked(machine: Machine, results) -> list:
+    return [c for fn in CHECKS for c in fn(machine, results, _no_text)]
+
+
+def margins(machine: Machine) -> dict[tuple, float]:
+    """Every finite margin of the checks at the nominal point, keyed by where the check applies (corners._keys)."""
+    checks = _checked(machine, resolve(machine))
+    return {k: c.margin for k, c in zip(_keys(checks), checks) if c.margin is not None and math.isfinite(c.margin)}
+
+
+def _named(machine: Machine) -> dict[tuple, tuple[str, str, float]]:
+    """``margins`` with each check's name and id: key -> (name, check id, margin)."""
+    checks = _checked(machine, resolve(machine))
     return {k: (f"{c.id} ({c.where})" if c.where else c.id, c.id, c.margin) for k, c in zip(_keys(checks), checks)
             if c.margin is not None and math.isfinite(c.margin)}
 
@@ -184,7 +193,7 @@ def _deltas(machine: Machine, knob: Knob, factor: float, base: dict) -> dict[tup
         found = margins(_moved(machine, knob, factor))
     except (ArithmeticError, ValueError):  # a relation's guard refuses the moved value
         return None
-    return {k: found[k][2] - base[k][2] for k in base if k in found}
+    return {k: found[k] - base[k][2] for k in base if k in found}
 
 
 # What forked workers read (set before the fork, so they inherit it rather than receive it).
@@ -224,7 +233,7 @@ def _rank(effect: tuple[str, float]) -> tuple:
 def sensitivity(machine: Machine, step: float = DEFAULT_STEP) -> Sensitivity:
     """The change of every margin for a step of every numeric input, ranked (module docstring)."""
     knobs, skipped = numeric_inputs(machine)
-    base = margins(machine)
+    base = _named(machine)
     ups = dict(zip((k.path for k in knobs), _evaluate(machine, [(k, 1.0 + step) for k in knobs], base)))
     ranked = {}
     for key in base:
