@@ -166,15 +166,20 @@ def _checked(machine: Machine, results) -> list:
     return [c for fn in CHECKS for c in fn(machine, results, _no_text)]
 
 
-def margins(machine: Machine) -> dict[tuple, float]:
+# Duty results of drives an input does not reach, kept across the moved machines (resolve's ``reuse``):
+# a moved copy shares every part the input does not sit in, so those drives are not computed again.
+_REUSE: dict = {}
+
+
+def margins(machine: Machine, reuse: dict | None = None) -> dict[tuple, float]:
     """Every finite margin of the checks at the nominal point, keyed by where the check applies (corners._keys)."""
-    checks = _checked(machine, resolve(machine))
+    checks = _checked(machine, resolve(machine, reuse))
     return {k: c.margin for k, c in zip(_keys(checks), checks) if c.margin is not None and math.isfinite(c.margin)}
 
 
-def _named(machine: Machine) -> dict[tuple, tuple[str, str, float]]:
+def _named(machine: Machine, reuse: dict | None = None) -> dict[tuple, tuple[str, str, float]]:
     """``margins`` with each check's name and id: key -> (name, check id, margin)."""
-    checks = _checked(machine, resolve(machine))
+    checks = _checked(machine, resolve(machine, reuse))
     return {k: (f"{c.id} ({c.where})" if c.where else c.id, c.id, c.margin) for k, c in zip(_keys(checks), checks)
             if c.margin is not None and math.isfinite(c.margin)}
 
@@ -190,7 +195,7 @@ def _moved(machine: Machine, knob: Knob, factor: float) -> Machine:
 
 def _deltas(machine: Machine, knob: Knob, factor: float, base: dict) -> dict[tuple, float] | None:
     try:
-        found = margins(_moved(machine, knob, factor))
+        found = margins(_moved(machine, knob, factor), _REUSE)
     except (ArithmeticError, ValueError):  # a relation's guard refuses the moved value
         return None
     return {k: found[k] - base[k][2] for k in base if k in found}
@@ -233,7 +238,8 @@ def _rank(effect: tuple[str, float]) -> tuple:
 def sensitivity(machine: Machine, step: float = DEFAULT_STEP) -> Sensitivity:
     """The change of every margin for a step of every numeric input, ranked (module docstring)."""
     knobs, skipped = numeric_inputs(machine)
-    base = _named(machine)
+    _REUSE.clear()
+    base = _named(machine, _REUSE)  # fills the reuse with every drive of the design as it stands
     ups = dict(zip((k.path for k in knobs), _evaluate(machine, [(k, 1.0 + step) for k in knobs], base)))
     ranked = {}
     for key in base:
@@ -243,6 +249,7 @@ def sensitivity(machine: Machine, step: float = DEFAULT_STEP) -> Sensitivity:
     shown = sorted({path for key in order[:SHOWN_MARGINS] for path, _ in ranked[key][:SHOWN_INPUTS]})
     by_path = {k.path: k for k in knobs}
     downs = dict(zip(shown, _evaluate(machine, [(by_path[p], 1.0 - step) for p in shown], base)))
+    _REUSE.clear()
     out = []
     for key in order:
         effects = tuple(Effect(path, up, (downs.get(path) or {}).get(key) if path in downs else None)

@@ -272,13 +272,23 @@ def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup
     return DutyResult(drive.id, duty.id, duty.direction, rec.values)
 
 
-def resolve(machine: Machine) -> Results:
-    """Compute every drive's duty points, then every supply in every mode (checks come after)."""
+def resolve(machine: Machine, reuse: dict | None = None) -> Results:
+    """Compute every drive's duty points, then every supply in every mode (checks come after).
+
+    ``reuse``: a dict kept across calls on machines that share their unchanged parts (the sensitivity's
+    moved copies, specgen/sensitivity.py): a drive whose record, supply, fluid and sizing are the very
+    objects of an earlier call keeps that call's duty results instead of computing them again."""
     fluid = fluid_values(machine.fluid)
     bases = {s.id: supply_base(s, fluid) for s in machine.supplies}
     duties, drive_results = {}, []
     for drive in machine.drives:
         sup = machine.supply(drive.supply)
+        shared = (drive, sup, machine.fluid, machine.sizing)
+        hit = reuse.get(id(drive)) if reuse is not None else None
+        if hit is not None and all(a is b for a, b in zip(hit[0], shared)):
+            drive_results.append(hit[1])
+            duties.update(hit[2])
+            continue
         mech = {duty.id: duty_mechanics(drive, duty) for duty in drive.duty_points}
         torques = {u.id: (mech[u.id].get("motor_torque"), u.direction) for u in drive.duty_points}
         starts = {}
@@ -292,6 +302,8 @@ def resolve(machine: Machine) -> Results:
         drive_results.append(setup.result)
         for duty in drive.duty_points:
             duties[(drive.id, duty.id)] = resolve_duty(drive, duty, sup, mech[duty.id], setup, fluid)
+        if reuse is not None:
+            reuse[id(drive)] = (shared, setup.result, {(drive.id, u.id): duties[(drive.id, u.id)] for u in drive.duty_points})
     supply_modes = []
     for mode in machine.modes:
         for sup in machine.supplies:
