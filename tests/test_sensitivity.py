@@ -103,3 +103,22 @@ def test_report_draws_a_tornado_chart_for_the_weakest_margins(tmp_path):
     html = (tmp_path / "rep" / "index.html").read_text(encoding="utf-8")
     assert code == 0 and 'id="sensitivity"' in html
     assert "hoist.duty_points.lift.torque" in html.split('id="sensitivity"')[1]
+
+
+def test_forked_workers_give_the_same_table_as_one_process(monkeypatch):
+    from specgen import sensitivity as sens
+    from specgen.present import chart_batch
+
+    if "fork" not in __import__("multiprocessing").get_all_start_methods():
+        pytest.skip("this system cannot fork")
+    m = _machine()
+    monkeypatch.setattr(chart_batch, "can_fork", lambda: False)
+    alone = sensitivity(m)
+    monkeypatch.setattr(chart_batch, "can_fork", lambda: True)
+    monkeypatch.setattr(chart_batch, "usable_cpus", lambda: 2)
+    monkeypatch.setattr(sens.os, "getloadavg", lambda: (0.0, 0.0, 0.0))
+    monkeypatch.setattr(sens, "FORK_FROM", 4)
+    forked = []
+    real = chart_batch._fork_pool
+    monkeypatch.setattr(chart_batch, "_fork_pool", lambda n, init: forked.append(n) or real(n, init))
+    assert sensitivity(m) == alone and forked == [2]

@@ -276,16 +276,18 @@ def resolve(machine: Machine, reuse: dict | None = None) -> Results:
     """Compute every drive's duty points, then every supply in every mode (checks come after).
 
     ``reuse``: a dict kept across calls on machines that share their unchanged parts (the sensitivity's
-    moved copies, specgen/sensitivity.py): a drive whose record, supply, fluid and sizing are the very
-    objects of an earlier call keeps that call's duty results instead of computing them again."""
+    moved copies, specgen/sensitivity.py): a drive whose record and supply, and every part of the machine
+    but its drives and supplies, are the very objects of an earlier call keeps that call's duty results."""
     fluid = fluid_values(machine.fluid)
     bases = {s.id: supply_base(s, fluid) for s in machine.supplies}
     duties, drive_results = {}, []
+    rest = tuple(getattr(machine, f) for f in machine.__dataclass_fields__ if f not in ("drives", "supplies")) \
+        if reuse is not None else ()
     for drive in machine.drives:
         sup = machine.supply(drive.supply)
-        shared = (drive, sup, machine.fluid, machine.sizing)
+        shared = (drive, sup) + rest
         hit = reuse.get(id(drive)) if reuse is not None else None
-        if hit is not None and all(a is b for a, b in zip(hit[0], shared)):
+        if hit is not None and len(hit[0]) == len(shared) and all(a is b for a, b in zip(hit[0], shared)):
             drive_results.append(hit[1])
             duties.update(hit[2])
             continue
