@@ -121,4 +121,4 @@ def test_forked_workers_give_the_same_table_as_one_process(monkeypatch):
     forked = []
     real = chart_batch._fork_pool
     monkeypatch.setattr(chart_batch, "_fork_pool", lambda n, init: forked.append(n) or real(n, init))
-    assert sensitivity(m) == alone and forked == [2]
+    assert sensitivity(m) == alone and forked and set(forked) == {2}  # both steps drawn by two workers
