@@ -309,7 +309,17 @@ def resolve(machine: Machine, reuse: dict | None = None) -> Results:
     supply_modes = []
     for mode in machine.modes:
         for sup in machine.supplies:
-            r = resolve_supply_mode(machine, sup, mode, duties, bases[sup.id])
+            if reuse is None:
+                r = resolve_supply_mode(machine, sup, mode, duties, bases[sup.id])
+            else:  # kept while the supply, its running drives and their duty results are the same objects
+                on = [(d, u) for d, u in mode.running if machine.drive(d).supply == sup.id]
+                shared = (sup, mode) + rest + tuple(machine.drive(d) for d, _ in on) + tuple(duties[x] for x in on)
+                hit = reuse.get((id(sup), mode.id))
+                if hit is not None and len(hit[0]) == len(shared) and all(a is b for a, b in zip(hit[0], shared)):
+                    r = hit[1]
+                else:
+                    r = resolve_supply_mode(machine, sup, mode, duties, bases[sup.id])
+                    reuse[(id(sup), mode.id)] = (shared, r)
             if r is not None:
                 supply_modes.append(r)
     supplies = tuple(supply_summary(s, bases[s.id], supply_modes) for s in machine.supplies)
