@@ -122,3 +122,20 @@ def test_forked_workers_give_the_same_table_as_one_process(monkeypatch):
     real = chart_batch._fork_pool
     monkeypatch.setattr(chart_batch, "_fork_pool", lambda n, init: forked.append(n) or real(n, init))
     assert sensitivity(m) == alone and forked and set(forked) == {2}  # both steps drawn by two workers
+
+
+def test_reused_parts_give_the_results_of_a_whole_resolve():
+    from helpers import EXAMPLE
+
+    from specgen import sensitivity as sens
+    from specgen.pipeline import run_file
+
+    m = run_file(EXAMPLE, variants=()).machine
+    knobs = {k.path: k for k in numeric_inputs(m)[0]}
+    reuse: dict = {}
+    sens.margins(m, reuse)
+    for path in ("drives.cutter_reel.motor.displacement", "supplies.aux.pump.displacement", "fluid.temperature",
+                 "drives.bale_winch.gear_stage.ratio", "cooler.capacity"):
+        moved = sens._moved(m, knobs[path], 1.05)
+        assert resolve(moved, reuse) == resolve(moved), path
+        assert sens.margins(moved, reuse) == sens.margins(moved), path
