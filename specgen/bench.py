@@ -27,6 +27,12 @@ against some 600 ms for a fresh ``check``). Measured on 2 CPUs, Python 3.11.7, l
 ``--repeats 5 --no-report``: check demo, 5 corners 1.281 s (cpu 0.618 s) against no corners 1.099 s
 (cpu 0.547 s), ratio 1.17; ``--quick``: 0.777 s against 0.882 s (cpu 0.765 s against 0.716 s).
 
+Design variants and sensitivity, 7 round-robin runs at a load average of about 4 on 2 CPUs (other
+work on the machine): check demo with 5 variants 0.99 s (cpu 0.66 s) against the plain demo 0.95 s
+(cpu 0.67 s), ratio 1.04; check --sensitivity on the demo 1.86 s (cpu 1.32 s) against check demo
+0.94 s (cpu 0.80 s), ratio 1.99 (1.59 between the fastest runs). Before the sensitivity reused the
+results of the drives and supply modes an input does not reach, the same ratio was 2.9 (cpu 2.6).
+
 The large specs are generated into a temporary folder from the demo's own drives: group after
 group of its six drives on up to 50 copies of its two supplies, and 50 modes that each run the
 drives of one demo mode in a tenth of the groups. They are valid specs, so check does its whole
