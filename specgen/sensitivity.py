@@ -50,6 +50,7 @@ from dataclasses import dataclass
 from specgen.checks import CHECKS
 from specgen.corners import _keys, apply
 from specgen.intake.build_corners import Target
+from specgen.intake.build_variants import Moves
 from specgen.intake.model import Machine, Motor, Ratio
 from specgen.resolve.machine import resolve
 
@@ -133,8 +134,8 @@ def numeric_inputs(machine: Machine) -> tuple[tuple[Knob, ...], tuple[tuple[str,
                 and node.displacement_min == node.displacement_max:
             for f in dataclasses.fields(node):
                 if f.name == "displacement_min":
-                    knobs.append(Knob(".".join(names + ("displacement",)), node.displacement_min,
-                                      (steps + (("attr", "displacement_min"),), steps + (("attr", "displacement_max"),))))
+                    ends = (steps + (("attr", "displacement_min"),), steps + (("attr", "displacement_max"),))
+                    knobs.append(Knob(".".join(names + ("displacement",)), node.displacement_min, ends))
                 elif f.name != "displacement_max" and f.name not in _SKIP:
                     walk(getattr(node, f.name), steps + (("attr", f.name),), names + (_name(node, f.name),))
         elif dataclasses.is_dataclass(node):
@@ -187,13 +188,8 @@ def _named(machine: Machine, reuse: dict | None = None) -> dict[tuple, tuple[str
             if c.margin is not None and math.isfinite(c.margin)}
 
 
-@dataclass(frozen=True)
-class _Moves:
-    targets: tuple[Target, ...]
-
-
 def _moved(machine: Machine, knob: Knob, factor: float) -> Machine:
-    return apply(machine, _Moves(tuple(Target(knob.path, s, "scale", factor) for s in knob.steps)))
+    return apply(machine, Moves(tuple(Target(knob.path, s, "scale", factor) for s in knob.steps)))
 
 
 def _deltas(machine: Machine, knob: Knob, factor: float, base: dict) -> dict[tuple, float] | None:

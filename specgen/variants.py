@@ -200,7 +200,9 @@ def _plain(value):
 def _put(data: dict, path: tuple, value) -> None:
     node = data
     for part in path[:-1]:
-        node = node.setdefault(part, {})
+        if not isinstance(node.get(part), dict):  # a fixed size given a {min, max} range, say
+            node[part] = {}
+        node = node[part]
     if isinstance(value, dict) and isinstance(node.get(path[-1]), dict):
         node[path[-1]] = {**node[path[-1]], **value}
     else:

@@ -213,7 +213,8 @@ def _scale(value, is_ratio: bool) -> tuple[str, float | None]:
 def _out_of_range(spec: str, result: float, is_ratio: bool, kind: str, noun: str = "corner") -> str | None:
     if is_ratio and "efficiency" in spec and not MIN_EFFICIENCY <= result <= 1.0:
         return f"'{spec}' would become {result:.4g} at this {noun}; an efficiency lies in (0, 1]"
-    if is_ratio and "efficiency" not in spec and noun == "corner" and not 0.0 <= result < 1.0:  # a variant's grade may fall
+    # a corner's other ratios are thresholds and shares; a variant may move any ratio (a grade may fall)
+    if is_ratio and "efficiency" not in spec and noun == "corner" and not 0.0 <= result < 1.0:
         return f"'{spec}' would become {result:.4g} at this {noun}; it must lie in [0, 1)"
     if not is_ratio and kind != "temperature" and not SI_RANGE[0] <= result <= SI_RANGE[1]:
         return (f"'{spec}' would become {result:.4g} (SI) at this {noun}; it must stay above zero and within "

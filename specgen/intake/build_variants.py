@@ -66,13 +66,15 @@ def build_variants(b: Builder, d: dict, machine: Machine, directions: Callable) 
             shown.append((key, _as_written(value)))
         if len(b.problems) > before:
             continue
-        moved = _decided(b, apply(machine, _Moves(tuple(targets))), machine, d, targets, vid, directions)
+        moved = _decided(b, apply(machine, Moves(tuple(targets))), machine, d, targets, vid, directions)
         out.append(Variant(vid, v.get("title", vid), tuple(targets), tuple(shown), moved))
     return tuple(out)
 
 
 @dataclass(frozen=True)
-class _Moves:
+class Moves:
+    """Fields to move, as corners.apply takes them (a corner without its title and modes)."""
+
     targets: tuple[Target, ...]
 
 
@@ -171,7 +173,8 @@ def _table(b: Builder, machine: Machine, path: tuple, value, here: tuple) -> lis
         return []
     if value not in tables:
         where = f"parts file '{machine.sizing.parts_file}'" if machine.sizing.parts_file else "the spec's sizing"
-        b.fail(here, f"{where} has no efficiency table '{value}'" + (f" (it has: {', '.join(tables)})" if tables else ""))
+        have = f" (it has: {', '.join(tables)})" if tables else ""
+        b.fail(here, f"{where} has no efficiency table '{value}'{have}")
         return []
     return [Target(".".join(path), steps, "set", tables[value])]
 

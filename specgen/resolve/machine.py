@@ -305,7 +305,8 @@ def resolve(machine: Machine, reuse: dict | None = None) -> Results:
         for duty in drive.duty_points:
             duties[(drive.id, duty.id)] = resolve_duty(drive, duty, sup, mech[duty.id], setup, fluid)
         if reuse is not None:
-            reuse[id(drive)] = (shared, setup.result, {(drive.id, u.id): duties[(drive.id, u.id)] for u in drive.duty_points})
+            reuse[id(drive)] = (shared, setup.result,
+                                {(drive.id, u.id): duties[(drive.id, u.id)] for u in drive.duty_points})
     supply_modes = []
     for mode in machine.modes:
         for sup in machine.supplies:

@@ -14,8 +14,7 @@ ROWS = [TornadoRow("drives.hoist.duty_points.lift.torque", -0.8, 0.8),
 
 
 def test_same_rows_same_bytes_with_ids_prefixed_and_greys_only():
-    a, b = tornado("fig5", "pressure_margin (drive hoist)", ROWS, "1 %"), tornado("fig5", "pressure_margin (drive hoist)",
-                                                                                 ROWS, "1 %")
+    a, b = (tornado("fig5", "pressure_margin (drive hoist)", ROWS, "1 %") for _ in range(2))
     assert a.svg == b.svg and a.svg.startswith("<svg")
     ids = set(re.findall(r'\bid="([^"]+)"', a.svg))
     assert all(i == "fig5" or i.startswith("fig5-") for i in ids)
