@@ -131,3 +131,5 @@ def test_report_shows_the_variants_side_by_side(tmp_path):
     html = (tmp_path / "rep" / "index.html").read_text(encoding="utf-8")
     assert code == 1 and "variant low_relief: FAIL" in out
     assert 'id="variants"' in html and "Relief at 200 bar" in html and "FAIL pressure_margin" in html
+    summary = html.split('id="summary"')[1].split('id="cautions"')[0]  # page 1 says a variant fails
+    assert "Design variants:" in summary and "FAIL</span> <a href=\"#variants\">low_relief" in summary
