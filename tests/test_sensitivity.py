@@ -139,3 +139,13 @@ def test_reused_parts_give_the_results_of_a_whole_resolve():
         moved = sens._moved(m, knobs[path], 1.05)
         assert resolve(moved, reuse) == resolve(moved), path
         assert sens.margins(moved, reuse) == sens.margins(moved), path
+
+
+def test_the_json_with_a_sensitivity_table_follows_the_published_schema(tmp_path):
+    import jsonschema
+
+    from helpers import ROOT
+
+    schema = json.loads((ROOT / "schemas" / "check-output.schema.json").read_text(encoding="utf-8"))
+    code, out, _ = run_cli("check", "--sensitivity", "--format", "json", write_spec(tmp_path, minimal()))
+    jsonschema.Draft202012Validator(schema).validate(json.loads(out))

@@ -133,3 +133,12 @@ def test_report_shows_the_variants_side_by_side(tmp_path):
     assert 'id="variants"' in html and "Relief at 200 bar" in html and "FAIL pressure_margin" in html
     summary = html.split('id="summary"')[1].split('id="cautions"')[0]  # page 1 says a variant fails
     assert "Design variants:" in summary and "FAIL</span> <a href=\"#variants\">low_relief" in summary
+
+
+def test_a_variant_is_named_after_a_hash_unless_the_file_itself_holds_one(tmp_path):
+    from specgen.gitsource import split_variant
+
+    assert split_variant("HEAD~1:specs/loader.yaml#big_motor") == ("HEAD~1:specs/loader.yaml", "big_motor")
+    assert split_variant("loader.yaml") == ("loader.yaml", None)
+    odd = write_spec(tmp_path, minimal(), "rig#2.yaml")
+    assert split_variant(str(odd)) == (str(odd), None)
