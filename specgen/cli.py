@@ -49,6 +49,11 @@ def _parser() -> argparse.ArgumentParser:
                    help="exit 1 unless a recorded review accepts each spec's current content")
     c.add_argument("--allow-outside-files", action="store_true",
                    help="let a spec name files (a sizing parts file) outside its own folder tree")
+    _variant_option(c)
+    c.add_argument("--sensitivity", action="store_true",
+                   help="also rank, for every check's margin, the inputs that move it most (each numeric input of "
+                        "the model moved by --step of its value; json: the whole table)")
+    _step_option(c)
     _diff_parser(sub)
     _review_parser(sub)
     _report_parser(sub)
@@ -63,13 +68,27 @@ def _parser() -> argparse.ArgumentParser:
     return ap
 
 
+def _variant_option(p) -> None:
+    p.add_argument("--variant", action="append", metavar="ID", dest="variants",
+                   help="run only this design variant of the spec (repeat for more) beside the base design "
+                        "[every variant the spec declares]")
+
+
+def _step_option(p) -> None:
+    p.add_argument("--step", default="1 %", metavar="STEP",
+                   help="with --sensitivity: how far each input moves, a percentage or fraction of its value "
+                        "(up to 50 %%) [1 %%]")
+
+
 def _diff_parser(sub) -> None:
     from specgen.diff import FAIL_ON
     from specgen.present.diff_out import FORMATS, MAX_CHARS
 
-    d = sub.add_parser("diff", help="compare two revisions of a spec: inputs, results and checks")
-    d.add_argument("old", metavar="OLD", help="spec file, or REV:path read from git (e.g. main:specs/loader.yaml)")
-    d.add_argument("new", metavar="NEW", help="spec file, or REV:path read from git")
+    d = sub.add_parser("diff", help="compare two revisions of a spec, or two of its design variants: inputs, results "
+                                    "and checks")
+    d.add_argument("old", metavar="OLD", help="spec file, or REV:path read from git (e.g. main:specs/loader.yaml); "
+                                              "add #ID for one of its design variants (spec.yaml#larger_reel)")
+    d.add_argument("new", metavar="NEW", help="spec file, or REV:path read from git; add #ID for a design variant")
     d.add_argument("--format", choices=FORMATS, default="text")
     d.add_argument("-o", "--output", metavar="FILE", help="write the output to FILE instead of standard output")
     d.add_argument("--max-chars", type=int, default=MAX_CHARS, metavar="N",
@@ -111,6 +130,11 @@ def _report_parser(sub) -> None:
     r.add_argument("--strict", action="store_true", help="count warnings as failures")
     r.add_argument("--allow-outside-files", action="store_true",
                    help="let a spec name files (a sizing parts file) outside its own folder tree")
+    _variant_option(r)
+    r.add_argument("--sensitivity", action="store_true",
+                   help="add the sensitivity of the weakest margins to the report (tornado charts): each numeric "
+                        "input moved by --step of its value")
+    _step_option(r)
 
 
 def _emit(text: str, output: str | None, inputs=()) -> None:
@@ -138,13 +162,14 @@ def _inputs(paths: list[str], sources) -> list[Path]:
     return out
 
 
-def _evaluate_all(paths: list[str], allow_outside_files: bool = False):
+def _evaluate_all(paths: list[str], allow_outside_files: bool = False, variants: list[str] | None = None):
     from specgen.pipeline import run_file
 
     outcomes, problems = [], []
     for path in paths:
         try:
-            outcomes.append(run_file(path, allow_outside_files=allow_outside_files))
+            outcomes.append(run_file(path, allow_outside_files=allow_outside_files,
+                                     variants=tuple(variants) if variants else None))
         except SpecError as exc:
             problems += exc.problems
     return outcomes, problems
@@ -152,9 +177,14 @@ def _evaluate_all(paths: list[str], allow_outside_files: bool = False):
 
 def cmd_check(args) -> int:
     paths = spec_paths(args.specs)
-    outcomes, problems = _evaluate_all(paths, args.allow_outside_files)
+    step = _step(args.step) if args.sensitivity else None
+    outcomes, problems = _evaluate_all(paths, args.allow_outside_files, args.variants)
     if problems:
         raise SpecError(problems)
+    if step is not None:
+        from specgen.sensitivity import with_sensitivity
+
+        outcomes = [with_sensitivity(o, step) for o in outcomes]
     inputs = _inputs(paths, [o.source for o in outcomes])
     if args.output:
         from specgen.output import refuse_inputs
@@ -185,21 +215,41 @@ def cmd_check(args) -> int:
     return code
 
 
+def _step(text: str | None) -> float | None:
+    """The sensitivity step as a fraction ('1 %' -> 0.01, '0.5%', 0.02); exit 2 when it is not one."""
+    if text is None:
+        return None
+    from specgen.sensitivity import parse_step
+
+    step = parse_step(text)
+    if step is None:
+        raise SpecError([Problem(Location("--step"), "", f"'{text}' is not a step between 0 and 50 %, "
+                                                                 "e.g. '1 %' or 0.01")])
+    return step
+
+
 def cmd_diff(args) -> int:
     from specgen.diff import compare
     from specgen.gitsource import read_spec, split_revision
     from specgen.pipeline import evaluate
     from specgen.present.diff_out import render
 
+    from specgen.gitsource import split_variant
+    from specgen.variants import as_outcome, without_variants
+
     sides, problems = [], []
     for arg in (args.old, args.new):  # both sides read, so every problem is told at once
+        spec, vid = split_variant(arg)
         try:
-            sides.append(evaluate(read_spec(arg)))
+            o = evaluate(read_spec(spec), variants=(vid,) if vid else ())
+            sides.append(as_outcome(o, vid, arg) if vid else o)
         except SpecError as exc:
             problems += exc.problems
     if problems:
         raise SpecError(problems)
-    files = [a for a in (args.old, args.new) if split_revision(a) is None]
+    if any(split_variant(a)[1] for a in (args.old, args.new)):  # a base design against a variant: inputs only
+        sides = [without_variants(o) for o in sides]
+    files = [s for s in (split_variant(a)[0] for a in (args.old, args.new)) if split_revision(s) is None]
     d = compare(*sides)
     _emit(render(d, args.format, args.max_chars), args.output, _inputs(files, [s.source for s in sides]))
     return exits.diff_status(d, args.fail_on)
@@ -238,9 +288,14 @@ def cmd_report(args) -> int:
     date = given_date(args.date, os.environ)
     report.start_drawing()  # chart workers import matplotlib while the specs are checked; write stops them
     paths = spec_paths(args.specs)
-    outcomes, problems = _evaluate_all(paths, args.allow_outside_files)
+    step = _step(args.step) if args.sensitivity else None
+    outcomes, problems = _evaluate_all(paths, args.allow_outside_files, args.variants)
     if problems:
         raise SpecError(problems)
+    if step is not None:
+        from specgen.sensitivity import with_sensitivity
+
+        outcomes = [with_sensitivity(o, step) for o in outcomes]
     _refuse_inputs_in_report(args.output, _inputs(paths, [o.source for o in outcomes]))
     from specgen.review import reviews_for_report, status
 
@@ -251,6 +306,8 @@ def cmd_report(args) -> int:
         print(f"note: {escape(note)}", file=sys.stderr)
     for o in outcomes:
         print(headline(o))
+        for v in o.variants:  # a failing variant is said, never hidden behind the base design's verdict
+            print(escape(f"  variant {v.id}: {v.results.verdict.upper()}  {v.title}"))
     for path in written.files:
         print(f"wrote {escape(path)}")
     return exits.outcomes_status(outcomes, args.strict)

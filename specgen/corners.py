@@ -53,6 +53,8 @@ def _replace(node, steps: tuple, fn: Callable):
     if not steps:
         return fn(node)
     how, name = steps[0]
+    if how == "index":  # a record of a tuple without ids (a duty cycle's steps)
+        return tuple(_replace(x, steps[1:], fn) if i == name else x for i, x in enumerate(node))
     if how == "id":
         return tuple(_replace(x, steps[1:], fn) if x.id == name else x for x in node)
     return replace(node, **{name: _replace(getattr(node, name), steps[1:], fn)})

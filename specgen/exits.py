@@ -26,8 +26,9 @@ def verdict_status(verdicts, strict: bool = False) -> int:
 
 
 def outcomes_status(outcomes, strict: bool = False) -> int:
-    """``verdict_status`` of checked outcomes (pipeline.Outcome)."""
-    return verdict_status((o.results.verdict for o in outcomes), strict)
+    """``verdict_status`` of checked outcomes (pipeline.Outcome): the base design and every design
+    variant that ran, so a failing variant is never hidden."""
+    return verdict_status((getattr(o, "verdict", None) or o.results.verdict for o in outcomes), strict)
 
 
 def review_status(status: int, covered: bool) -> int:

@@ -11,6 +11,9 @@ a path that exists as a file always wins, so a file name holding a colon still r
 Failures (git missing, not a repository, an unknown revision, a path not in that revision) are
 reported as a SpecError naming the argument, never as a traceback.
 
+A design variant of a spec (specgen/variants.py) is named ``spec.yaml#variant`` (``REV:spec.yaml#variant``
+from git): ``split_variant`` takes the id off; the diff then compares that variant.
+
 Example: ``read_spec("HEAD:example_specs/reed_harvester.yaml").name`` is that same text, and its
 data is the spec as committed, whatever the file on disk now holds.
 """
@@ -35,6 +38,15 @@ def split_revision(arg: str) -> tuple[str, str] | None:
     if not rev or not path:
         return None
     return rev, path
+
+
+def split_variant(arg: str) -> tuple[str, str | None]:
+    """(spec argument, variant id) for ``spec.yaml#variant`` or ``REV:spec.yaml#variant``; the id is
+    None without a ``#`` (or when the whole argument names an existing file)."""
+    if "#" not in arg or Path(arg).is_file():
+        return arg, None
+    spec, vid = arg.rsplit("#", 1)
+    return (spec, vid) if spec and vid else (arg, None)
 
 
 def _fail(arg: str, message: str) -> SpecError:

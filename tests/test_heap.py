@@ -27,8 +27,10 @@ def test_the_pipeline_runs_with_full_sweeps_waiting_and_rendering_does_not(monke
     monkeypatch.setattr(pipeline, "resolve", lambda machine: seen.append(gc.get_threshold()[2]) or real(machine))
     before = gc.get_threshold()
     outcome = pipeline.run_file(EXAMPLE)
-    # once at the nominal point and once at each of the demo's operating corners
-    assert seen == [max(before[2], FULL_SWEEP_AFTER)] * (1 + len(outcome.results.corners)) and gc.get_threshold() == before
+    # once at the nominal point and once at each of the demo's operating corners, for the base design and
+    # each of its design variants
+    runs = (1 + len(outcome.results.corners)) * (1 + len(outcome.variants))
+    assert seen == [max(before[2], FULL_SWEEP_AFTER)] * runs and gc.get_threshold() == before
     assert outcome.results.checks  # the real work was done under the setting
 
 

@@ -129,8 +129,10 @@ def _typical(b: Builder, given: dict, machine: Machine) -> list[Corner]:
     return list(corners.values())
 
 
-def _targets(b: Builder, machine: Machine, key: str, value, how: str, here: tuple) -> list[Target]:
-    """The model fields ``key`` (a dotted path or a group) reaches, each with its parsed amount."""
+def _targets(b: Builder, machine: Machine, key: str, value, how: str, here: tuple, fixed: dict | None = None,
+             noun: str = "corner") -> list[Target]:
+    """The model fields ``key`` (a dotted path or a group) reaches, each with its parsed amount.
+    ``fixed``: spec keys that may not be moved (a design variant may move any); ``noun``: what moves them."""
     if key in GROUPS:
         section, rest = GROUPS[key]
         owners = [x.id for x in getattr(machine, section)]
@@ -143,22 +145,24 @@ def _targets(b: Builder, machine: Machine, key: str, value, how: str, here: tupl
         paths = [tuple(key.split("."))]
     out = []
     for path in paths:
-        target = _target(b, machine, path, value, how, here)
+        target = _target(b, machine, path, value, how, here, fixed, noun)
         if target is None:
             break  # one message per override is enough
         out.append(target)
     return out
 
 
-def _target(b: Builder, machine: Machine, path: tuple, value, how: str, here: tuple) -> Target | None:
+def _target(b: Builder, machine: Machine, path: tuple, value, how: str, here: tuple, fixed: dict | None = None,
+            noun: str = "corner") -> Target | None:
     spec = ".".join(path)
+    fixed = _FIXED if fixed is None else fixed
     for part in path:
-        if part in _FIXED:
-            b.fail(here, f"'{spec}' cannot be moved by a corner: {_FIXED[part]}")
+        if part in fixed:
+            b.fail(here, f"'{spec}' cannot be moved by a corner: {fixed[part]}")
             return None
     info = field_at(path, value if how == "set" else "1 unit")  # a factor says nothing of the field's shape
     if info is None or (info.kind is None and not info.quantity):
-        b.fail(here, f"'{spec}' is not a quantity of the spec a corner can move (e.g. fluid.temperature, "
+        b.fail(here, f"'{spec}' is not a quantity of the spec a {noun} can move (e.g. fluid.temperature, "
                      f"supplies.<id>.relief_setting, or a group: {', '.join(GROUPS)})")
         return None
     steps, found, problem = _walk(machine, path)
@@ -187,7 +191,7 @@ def _target(b: Builder, machine: Machine, path: tuple, value, how: str, here: tu
             b.fail(here, f"{value!r} is not a factor (e.g. 1.05) or a signed percentage (e.g. '+5 %', '-3 %')")
             return None
         result = base + amount if how == "points" else base * amount
-    problem = None if result == base == 0 else _out_of_range(spec, result, is_ratio, kind)
+    problem = None if result == base == 0 else _out_of_range(spec, result, is_ratio, kind, noun)
     if problem:
         b.fail(here, problem)
         return None
@@ -206,13 +210,14 @@ def _scale(value, is_ratio: bool) -> tuple[str, float | None]:
     return "scale", 1.0 + pct / 100.0 if pct > -100 else None
 
 
-def _out_of_range(spec: str, result: float, is_ratio: bool, kind: str) -> str | None:
+def _out_of_range(spec: str, result: float, is_ratio: bool, kind: str, noun: str = "corner") -> str | None:
     if is_ratio and "efficiency" in spec and not MIN_EFFICIENCY <= result <= 1.0:
-        return f"'{spec}' would become {result:.4g} at this corner; an efficiency lies in (0, 1]"
-    if is_ratio and "efficiency" not in spec and not 0.0 <= result < 1.0:
-        return f"'{spec}' would become {result:.4g} at this corner; it must lie in [0, 1)"
+        return f"'{spec}' would become {result:.4g} at this {noun}; an efficiency lies in (0, 1]"
+    # a corner's other ratios are thresholds and shares; a variant may move any ratio (a grade may fall)
+    if is_ratio and "efficiency" not in spec and noun == "corner" and not 0.0 <= result < 1.0:
+        return f"'{spec}' would become {result:.4g} at this {noun}; it must lie in [0, 1)"
     if not is_ratio and kind != "temperature" and not SI_RANGE[0] <= result <= SI_RANGE[1]:
-        return (f"'{spec}' would become {result:.4g} (SI) at this corner; it must stay above zero and within "
+        return (f"'{spec}' would become {result:.4g} (SI) at this {noun}; it must stay above zero and within "
                 f"the range specgen computes with ({SI_RANGE[0]:g} to {SI_RANGE[1]:g})")
     return None
 
@@ -232,6 +237,9 @@ def _walk(machine: Machine, path: tuple) -> tuple[tuple, object, str | None]:
             continue
         if node is None:
             return (), None, f"'{'.'.join(path[:i])}' is not given in the spec, so '{'.'.join(path)}' cannot be moved"
+        if part == getattr(node, "model", None) and not hasattr(node, part) and hasattr(node, "__dataclass_fields__"):
+            i += 1  # a load block's model key (load.wheel.grade): the model's fields sit on the load itself
+            continue
         if part == "efficiency" and i + 1 < len(path) and hasattr(node, "volumetric_efficiency") \
                 and hasattr(node, "starting_efficiency"):
             name, i = f"{path[i + 1]}_efficiency", i + 2  # motor efficiency.volumetric -> volumetric_efficiency

@@ -22,6 +22,7 @@ from specgen.intake.build_prime_movers import build_prime_movers, check_prime_mo
 from specgen.intake.build_sizing import build_sizing
 from specgen.intake.build_supplies import build_supply, ls_references
 from specgen.intake.build_travel import build_travel
+from specgen.intake.build_variants import Variant, build_variants
 from specgen.intake.model import Machine, Mode, Ratio, Thresholds
 from specgen.intake.quantities import Builder
 from specgen.intake.read import Source, problem
@@ -101,12 +102,19 @@ def build(source: Source, directions: Directions, allow_outside_files: bool = Fa
 
 def build_with_corners(source: Source, directions: Directions,
                        allow_outside_files: bool = False) -> tuple[Machine, tuple[Corner, ...]]:
+    """The model and its operating corners (build_design without the variants)."""
+    return build_design(source, directions, allow_outside_files)[:2]
+
+
+def build_design(source: Source, directions: Directions, allow_outside_files: bool = False
+                 ) -> tuple[Machine, tuple[Corner, ...], tuple[Variant, ...]]:
     """Validate ``source`` completely and return its model and its operating corners (each override
     parsed once, against the model). Raises SpecError listing every problem.
 
     ``directions`` decides each duty point's direction from its load (the load's sign is a relation
     of the trade, computed where the spec is resolved). Files the spec names (a sizing parts file)
-    must lie in the spec's folder tree unless ``allow_outside_files``."""
+    must lie in the spec's folder tree unless ``allow_outside_files``. Design variants
+    (build_variants.py) come last, each replacement read once against the built model."""
     problems = check_counts(source) or sorted(check_schema(source) + check_text(source), key=_order)
     if problems:
         raise SpecError(problems)
@@ -147,9 +155,10 @@ def build_with_corners(source: Source, directions: Directions,
         b.fail(path, message)
     check_targets(b, model.drives)
     corners = build_corners(b, d, model) if "corners" in d or d.get("typical_corners") else ()
+    variants = build_variants(b, d, model, directions) if "variants" in d and not b.problems else ()
     if b.problems:
         raise SpecError(sorted(b.problems, key=lambda p: (p.location.line, p.location.column, p.path)))
-    return model, corners
+    return model, corners, variants
 
 
 def _named_tables(b: Builder, d: dict, model: Machine) -> Machine:

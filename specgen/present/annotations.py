@@ -22,6 +22,7 @@ from __future__ import annotations
 from specgen.cautions import SHORT
 from specgen.pipeline import Outcome
 from specgen.safe_text import escape
+from specgen.variants import own_problems
 
 LEVELS = {"fail": "error", "warn": "warning"}
 
@@ -56,15 +57,16 @@ def command(level: str, file: str, line: int, title: str, message: str) -> str:
     return f"::{level} {where},title={prop(title)}::{data(message)}"
 
 
-def lines(o: Outcome) -> list[str]:
-    """One workflow command for each failing or warning check of one spec, failures first."""
+def lines(o: Outcome, checks=None, suffix: str = "") -> list[str]:
+    """One workflow command for each failing or warning check of one spec, failures first;
+    ``checks`` and ``suffix``: a design variant's own, their titles naming it."""
     out = []
     for status in ("fail", "warn"):
-        for c in o.results.checks:
+        for c in o.results.checks if checks is None else checks:
             if c.status != status:
                 continue
             loc = o.source.location(key_path(c))
-            title = c.name
+            title = c.name + suffix
             out.append(command(LEVELS[status], o.source.name, loc.line, title, c.message))
     return out
 
@@ -73,6 +75,8 @@ def render(outcomes: list[Outcome]) -> str:
     out = []
     for o in outcomes:
         out += lines(o)
+        for v in getattr(o, "variants", ()):  # a failing variant is said at the spec's own lines, never hidden
+            out += lines(o, own_problems(o.results, v.results), f" [variant {v.id}]")
         counts = o.results.counts()
         out.append(f"::notice file={prop(o.source.name)},title={prop('specgen ' + o.results.verdict.upper())}::"
                    + data(f"{o.machine.title} rev {o.machine.revision}: {counts['pass']} pass, "

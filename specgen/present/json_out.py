@@ -101,6 +101,29 @@ def document(o: Outcome, review=None) -> dict:
                     "display_units": system},
         "verdict": r.verdict,
         "counts": r.counts(),
+        **results_part(r, system, o.machine),
+        **(variants_part(o) if getattr(o, "variants", ()) else {}),
+        **(sensitivity_part(o) if getattr(o, "sensitivity", None) is not None else {}),
+        **({"review": review.as_dict()} if review is not None else {}),
+        "cautions": [{"title": t, "text": x} for t, x in CAUTIONS],
+    }
+
+
+def variants_part(o: Outcome) -> dict:
+    from specgen.present.variants_json import variants_document
+
+    return variants_document(o)
+
+
+def sensitivity_part(o: Outcome) -> dict:
+    from specgen.present.sensitivity_out import document as sensitivity_document
+
+    return {"sensitivity": sensitivity_document(o.sensitivity)}
+
+
+def results_part(r, system: str, machine) -> dict:
+    """Every computed value, check, corner and assumed input of one design (the base or a variant)."""
+    return {
         "duty_points": [
             {"drive": d.drive, "duty": d.duty, "direction": d.direction,
              "values": {k: _value(v, system) for k, v in d.values.items()}}
@@ -126,7 +149,7 @@ def document(o: Outcome, review=None) -> dict:
         "supplies": [
             {"supply": s.supply, "worst_power_mode": s.worst_power_mode, "worst_heat_mode": s.worst_heat_mode,
              "values": {k: _value(v, system) for k, v in s.values.items()},
-             **({"circuit": "closed_loop"} if o.machine.supply(s.supply).closed_loop is not None else {})}
+             **({"circuit": "closed_loop"} if machine.supply(s.supply).closed_loop is not None else {})}
             for s in r.supplies
         ],
         "modes": [{"mode": m.mode, "values": {k: _value(v, system) for k, v in m.values.items()}} for m in r.modes],
@@ -137,8 +160,6 @@ def document(o: Outcome, review=None) -> dict:
         "checks": [_check(c, system, bool(r.corners)) for c in r.checks],
         **({"corners": [_corner(k, system) for k in r.corners]} if r.corners else {}),
         "assumed": assumed_list(r, system),
-        **({"review": review.as_dict()} if review is not None else {}),
-        "cautions": [{"title": t, "text": x} for t, x in CAUTIONS],
     }
 
 

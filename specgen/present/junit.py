@@ -56,7 +56,11 @@ def suite(o: Outcome) -> ET.Element:
 
 def render(outcomes: list[Outcome]) -> str:
     root = ET.Element("testsuites", name="specgen check")
+    from specgen.variants import views
+
     for o in outcomes:
         root.append(suite(o))
+        for view in views(o):  # each design variant as a suite of its own, named spec.yaml#id
+            root.append(suite(view))
     ET.indent(root)
     return '<?xml version="1.0" encoding="utf-8"?>\n' + ET.tostring(root, encoding="unicode") + "\n"

@@ -176,6 +176,14 @@ def render(o: Outcome, quiet: bool = False, review=None) -> str:
     problems = checks_lines(o, only_problems=quiet)
     out += problems
     out += corner_lines(o) if not quiet else []
+    if getattr(o, "variants", ()):
+        from specgen.present.variants_text import variant_lines
+
+        out += variant_lines(o, quiet)
+    if getattr(o, "sensitivity", None) is not None:
+        from specgen.present.sensitivity_out import text_lines
+
+        out += text_lines(o.sensitivity)
     assumed = assumed_list(o.results, system)
     if assumed and not quiet:
         out += ["", "Assumed values (not given in the spec)"]

@@ -274,13 +274,25 @@ def resolve_duty(drive: Drive, duty: DutyPoint, sup: Supply, mech: Record, setup
     return DutyResult(drive.id, duty.id, duty.direction, rec.values)
 
 
-def resolve(machine: Machine) -> Results:
-    """Compute every drive's duty points, then every supply in every mode (checks come after)."""
+def resolve(machine: Machine, reuse: dict | None = None) -> Results:
+    """Compute every drive's duty points, then every supply in every mode (checks come after).
+
+    ``reuse``: a dict kept across calls on machines that share their unchanged parts (the sensitivity's
+    moved copies, specgen/sensitivity.py): a drive whose record and supply, and every part of the machine
+    but its drives and supplies, are the very objects of an earlier call keeps that call's duty results."""
     fluid = fluid_values(machine.fluid)
     bases = {s.id: supply_base(s, fluid, speed_value(machine, s)) for s in machine.supplies}
     duties, drive_results = {}, []
+    rest = tuple(getattr(machine, f) for f in machine.__dataclass_fields__ if f not in ("drives", "supplies")) \
+        if reuse is not None else ()
     for drive in machine.drives:
         sup = machine.supply(drive.supply)
+        shared = (drive, sup) + rest
+        hit = reuse.get(id(drive)) if reuse is not None else None
+        if hit is not None and len(hit[0]) == len(shared) and all(a is b for a, b in zip(hit[0], shared)):
+            drive_results.append(hit[1])
+            duties.update(hit[2])
+            continue
         mech = {duty.id: duty_mechanics(drive, duty) for duty in drive.duty_points}
         torques = {u.id: (mech[u.id].get("motor_torque"), u.direction) for u in drive.duty_points}
         starts = {}
@@ -294,10 +306,23 @@ def resolve(machine: Machine) -> Results:
         drive_results.append(setup.result)
         for duty in drive.duty_points:
             duties[(drive.id, duty.id)] = resolve_duty(drive, duty, sup, mech[duty.id], setup, fluid)
+        if reuse is not None:
+            reuse[id(drive)] = (shared, setup.result,
+                                {(drive.id, u.id): duties[(drive.id, u.id)] for u in drive.duty_points})
     supply_modes = []
     for mode in machine.modes:
         for sup in machine.supplies:
-            r = resolve_supply_mode(machine, sup, mode, duties, mode_base(machine, sup, mode, bases[sup.id], fluid))
+            if reuse is None:
+                r = resolve_supply_mode(machine, sup, mode, duties, mode_base(machine, sup, mode, bases[sup.id], fluid))
+            else:  # kept while the supply, its running drives and their duty results are the same objects
+                on = [(d, u) for d, u in mode.running if machine.drive(d).supply == sup.id]
+                shared = (sup, mode) + rest + tuple(machine.drive(d) for d, _ in on) + tuple(duties[x] for x in on)
+                hit = reuse.get((id(sup), mode.id))
+                if hit is not None and len(hit[0]) == len(shared) and all(a is b for a, b in zip(hit[0], shared)):
+                    r = hit[1]
+                else:
+                    r = resolve_supply_mode(machine, sup, mode, duties, mode_base(machine, sup, mode, bases[sup.id], fluid))
+                    reuse[(id(sup), mode.id)] = (shared, r)
             if r is not None:
                 supply_modes.append(r)
     supplies = tuple(supply_summary(s, bases[s.id], supply_modes) for s in machine.supplies)

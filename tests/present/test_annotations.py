@@ -23,8 +23,11 @@ def test_every_line_is_a_command_and_warnings_sit_at_their_duty_point_line():
     # one warning command for each warning of the demo harvester (as its JSON output counts them), one of
     # them found at its worn corner; the first sits at the line of track_left's climb duty point
     _, doc, _ = run_cli("check", "--format", "json", EXAMPLE)
-    warnings = [line for line in lines if line.startswith("::warning")]
+    warnings = [line for line in lines if line.startswith("::warning") and "[variant " not in line]
     assert len(warnings) == json.loads(doc)["counts"]["warn"] >= 1
+    # a design variant adds only what the base design does not say: bigger_aux's heat-load warning
+    assert [line.split("title=")[1].split("::")[0] for line in lines if "[variant " in line] == [
+        "heat_load (mode transit) [at corner worn] [variant bigger_aux]"]
     assert sum("[at corner worn]" in w for w in warnings) == 1
     text = EXAMPLE.read_text(encoding="utf-8").splitlines()
     first = warnings[0]

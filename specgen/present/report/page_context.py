@@ -27,6 +27,8 @@ from specgen.present.report.closed_loop import loop_table
 from specgen.present.report.load_sensing import ls_context
 from specgen.present.report.prime_movers import prime_mover_sections
 from specgen.present.report.travel import travel_context
+from specgen.present.report.sensitivity import sensitivity_context
+from specgen.present.report.variants import variants_context
 
 
 MANUAL_ITEMS = (
@@ -89,6 +91,7 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
     cycles = [_cycle_context(o, c, system, checks, fig_n, draw) for c in r.cycles]
     travel = travel_context(o, system, checks, fig_n, draw)
     fluid_values = r.fluid.values
+    extras = {"variants": variants_context(o), "sensitivity": sensitivity_context(o, fig_n, draw)}
     if own_batch:
         draw.draw()
     doc = f"{m.document_number[:60]} - " if m.document_number else ""
@@ -126,6 +129,7 @@ def context(o: Outcome, *, fp: Fingerprint, date: str | None = None, reviews: li
         # Recorded reviews of this spec (a list of mappings: name, role, date, verdict, fingerprint,
         # machine_revision, remarks); shown in the template's "reviews" block, empty by default.
         "reviews": list(reviews or []),
+        **extras,
     }
 
 
