@@ -20,14 +20,13 @@ and with it the main pump's load in harvest mode, grows too.
 
 from __future__ import annotations
 
-import copy
 import math
 from dataclasses import dataclass, replace
 from typing import Callable
 
 from specgen.corners import _keys, run_corners
-from specgen.intake.build_corners import GROUPS, Corner
-from specgen.intake.build_variants import Variant
+from specgen.intake.build_corners import Corner
+from specgen.intake.build_variants import Variant, written_out
 from specgen.intake.model import Machine
 from specgen.results import Results, most_severe
 
@@ -159,16 +158,7 @@ def as_outcome(outcome, vid: str, name: str):
     machine and results, and the spec's data with the variant's replacements written in (so the
     diff of inputs names them), under ``name`` (e.g. "spec.yaml#larger_reel")."""
     v = next(x for x in outcome.variants if x.id == vid)
-    data = copy.deepcopy(_plain(outcome.source.data))
-    for key, value in outcome.source.data["variants"][vid]["set"].items():
-        if key in GROUPS:
-            section, rest = GROUPS[key]
-            paths = [(section, owner) + rest for owner in data.get(section, {})]
-        else:
-            paths = [tuple(key.split("."))]
-        for path in paths:
-            _put(data, path, _plain(value))
-    del data["variants"]
+    data = written_out(outcome.source.data, vid)
     return replace(outcome, source=replace(outcome.source, name=name, data=data), machine=v.machine,
                    results=v.results, variants=())
 
@@ -187,23 +177,3 @@ def without_variants(outcome):
         return outcome
     data = {k: v for k, v in outcome.source.data.items() if k != "variants"}
     return replace(outcome, source=replace(outcome.source, data=data))
-
-
-def _plain(value):
-    if isinstance(value, dict):
-        return {str(k): _plain(x) for k, x in value.items()}
-    if isinstance(value, list):
-        return [_plain(x) for x in value]
-    return value
-
-
-def _put(data: dict, path: tuple, value) -> None:
-    node = data
-    for part in path[:-1]:
-        if not isinstance(node.get(part), dict):  # a fixed size given a {min, max} range, say
-            node[part] = {}
-        node = node[part]
-    if isinstance(value, dict) and isinstance(node.get(path[-1]), dict):
-        node[path[-1]] = {**node[path[-1]], **value}
-    else:
-        node[path[-1]] = value

@@ -15,7 +15,8 @@ from specgen.variants import compare
 
 def _doc(outcome, results=None) -> str:
     """The JSON of every computed value, check and assumed input of one design."""
-    return json.dumps(results_part(results or outcome.results, outcome.machine.display_units), sort_keys=True)
+    return json.dumps(results_part(results or outcome.results, outcome.machine.display_units, outcome.machine),
+                      sort_keys=True)
 
 
 def _variant(data: dict, vid: str, moves: dict, title: str = "") -> dict:

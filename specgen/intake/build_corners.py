@@ -227,6 +227,9 @@ def _walk(machine: Machine, path: tuple) -> tuple[tuple, object, str | None]:
     node, steps, i = machine, [], 0
     while i < len(path):
         part = path[i]
+        if isinstance(node, tuple) and not all(hasattr(x, "id") for x in node):
+            # pairs (a mode's running drives, its prime-mover speeds): not a value a corner or variant moves
+            return (), None, f"'{'.'.join(path)}' cannot be moved here: change it in the spec itself"
         if isinstance(node, tuple):  # a section keyed by id: supplies, drives
             match = next((x for x in node if getattr(x, "id", None) == part), None)
             if match is None:

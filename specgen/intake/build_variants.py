@@ -26,6 +26,7 @@ one Variant whose machine has the reel motor's displacement_min = displacement_m
 
 from __future__ import annotations
 
+import copy
 import math
 from dataclasses import dataclass, replace
 from typing import Callable
@@ -235,3 +236,39 @@ def _decided(b: Builder, moved: Machine, base: Machine, d: dict, targets: list[T
         if (path[1], path[3]) in touched:
             b.fail(("variants", vid), f"at this variant, {'.'.join(path)}: {message}")
     return moved
+
+
+def written_out(data: dict, vid: str) -> dict:
+    """The spec's ``data`` with variant ``vid``'s replacements written in and no ``variants`` key: the
+    variant as a spec of its own (for the revision diff, and to hold it to every rule of the spec)."""
+    out = copy.deepcopy(_as_data(data))
+    for key, value in data["variants"][vid]["set"].items():
+        if key in GROUPS:
+            section, rest = GROUPS[key]
+            paths = [(section, owner) + rest for owner in out.get(section, {})]
+        else:
+            paths = [tuple(key.split("."))]
+        for path in paths:
+            _put(out, path, _as_data(value))
+    del out["variants"]
+    return out
+
+
+def _as_data(value):
+    if isinstance(value, dict):
+        return {str(k): _as_data(x) for k, x in value.items()}
+    if isinstance(value, list):
+        return [_as_data(x) for x in value]
+    return value
+
+
+def _put(data: dict, path: tuple, value) -> None:
+    node = data
+    for part in path[:-1]:
+        if not isinstance(node.get(part), dict):  # a fixed size given a {min, max} range, say
+            node[part] = {}
+        node = node[part]
+    if isinstance(value, dict) and isinstance(node.get(path[-1]), dict):
+        node[path[-1]] = {**node[path[-1]], **value}
+    else:
+        node[path[-1]] = value

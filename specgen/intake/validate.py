@@ -22,7 +22,7 @@ from specgen.intake.build_prime_movers import build_prime_movers, check_prime_mo
 from specgen.intake.build_sizing import build_sizing
 from specgen.intake.build_supplies import build_supply, ls_references
 from specgen.intake.build_travel import build_travel
-from specgen.intake.build_variants import Variant, build_variants
+from specgen.intake.build_variants import Variant, build_variants, written_out
 from specgen.intake.model import Machine, Mode, Ratio, Thresholds
 from specgen.intake.quantities import Builder
 from specgen.intake.read import Source, problem
@@ -156,9 +156,24 @@ def build_design(source: Source, directions: Directions, allow_outside_files: bo
     check_targets(b, model.drives)
     corners = build_corners(b, d, model) if "corners" in d or d.get("typical_corners") else ()
     variants = build_variants(b, d, model, directions) if "variants" in d and not b.problems else ()
+    for v in variants:
+        _variant_keeps_the_rules(b, source, v.id, directions, allow_outside_files)
     if b.problems:
         raise SpecError(sorted(b.problems, key=lambda p: (p.location.line, p.location.column, p.path)))
     return model, corners, variants
+
+
+def _variant_keeps_the_rules(b: Builder, source: Source, vid: str, directions: Directions,
+                             allow_outside_files: bool) -> None:
+    """A variant is a design of its own: written out as a spec (its replacements in place), it must keep
+    every rule the base spec keeps (a load-sensing pump needs its margin, a supply names a prime mover
+    that exists, a charge pressure stays under the reliefs...), or the variant is refused at its key."""
+    written = Source(source.name, written_out(source.data, vid), b"")
+    try:
+        build_design(written, directions, allow_outside_files)
+    except SpecError as e:
+        first = e.problems[0]
+        b.fail(("variants", vid, "set"), f"with this variant the spec breaks a rule at {first.path}: {first.message}")
 
 
 def _named_tables(b: Builder, d: dict, model: Machine) -> Machine:

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+from pathlib import Path
+
 import pytest
 
 from helpers import minimal, run_cli, write_spec
@@ -49,3 +51,25 @@ def test_a_number_must_be_positive_and_a_count_whole(tmp_path):
     assert "does not fit 'drives.hoist.duty_points.lift.load.winch.layer'" in run_cli(
         "check", write_spec(tmp_path, dict(data, variants={"v": {"set": {
             "drives.hoist.duty_points.lift.load.winch.layer": 2.5}}})))[2]
+
+
+def _yard_loader_with(tmp_path, key: str, value: str):
+    text = (Path(__file__).resolve().parents[2] / "example_specs" / "yard_loader.yaml").read_text()
+    text += f"\nvariants:\n  alt:\n    title: Alt\n    set:\n      {key}: {value}\n"
+    spec = tmp_path / "v.yaml"
+    spec.write_text(text)
+    return run_cli("check", "-q", str(spec))
+
+
+@pytest.mark.parametrize("key, value, words", [
+    # a pump made pressure compensated keeps the load-sensing valve keys, which only a load-sensing pump takes
+    ("supplies.work.pump.control", "pressure_compensated", "ls_valves applies only"),
+    ("supplies.work.prime_mover", "nothing", "not defined under prime_movers"),
+    # the charge pressure above the side-B relief (400 bar) of the loop
+    ("supplies.travel.closed_loop.charge.pressure", "500 bar", "above the charge pressure"),
+    ("modes.sweeping.prime_mover_speeds.diesel", "idle", "cannot be moved here"),
+])
+def test_a_variant_keeps_every_rule_of_the_spec(tmp_path, key, value, words):
+    code, out, err = _yard_loader_with(tmp_path, key, value)
+    assert code == 2 and "Traceback" not in err
+    assert "variants.alt" in err and words in err and len(err.strip().splitlines()) == 1

@@ -4,7 +4,7 @@ what each variant replaces, the checks whose status differs, and every failing c
 from __future__ import annotations
 
 from specgen.pipeline import Outcome
-from specgen.present.report.values import STATUS_WORD
+from specgen.present.report.values import STATUS_WORD, typeset
 from specgen.units import format_si
 from specgen.variants import compare
 
@@ -20,11 +20,11 @@ def variants_context(o: Outcome) -> dict | None:
         "verdicts": [{"status": v, "word": STATUS_WORD[v]} for v in c.verdicts],
         "worst": {"status": c.verdict, "word": STATUS_WORD[c.verdict]},
         "rows": [{"label": r.label, "cells": [_cell(x, r.kind, system) for x in r.values]} for r in c.rows],
-        "differing": [{"name": d.name, "statuses": [s or "-" for s in d.statuses]} for d in c.differing],
-        "variants": [{"id": v.id, "title": v.title, "verdict": v.results.verdict,
+        "differing": [{"name": typeset(d.name), "statuses": [s or "-" for s in d.statuses]} for d in c.differing],
+        "variants": [{"id": v.id, "title": typeset(v.title), "verdict": v.results.verdict,
                       "verdict_word": STATUS_WORD[v.results.verdict],
                       "overrides": [f"{path} = {value}" for path, value in v.overrides],
-                      "failing": [f"{x.id} ({x.where}){f' at corner {x.corner}' if x.corner else ''}: {x.message}"
+                      "failing": [typeset(f"{x.id} ({x.where}){f' at corner {x.corner}' if x.corner else ''}: {x.message}")
                                   for x in v.results.checks if x.status == "fail"]}
                      for v in o.variants],
     }
@@ -33,4 +33,4 @@ def variants_context(o: Outcome) -> dict | None:
 def _cell(x: float | None, kind: str, system: str) -> str:
     if x is None:
         return "-"
-    return f"{x * 100:.1f} %" if kind == "ratio" else format_si(x, kind, system)
+    return f"{x * 100:.1f} %" if kind == "ratio" else typeset(format_si(x, kind, system))
