@@ -382,11 +382,18 @@ def _mode_axes(title: str, modes: Sequence[str], y_max: float, y_label: str, rig
 
 
 def flow_by_mode(fig_id: str, title: str, *, unit: str, modes: Sequence[str], drives: Sequence[str],
-                 flows: Sequence[Sequence[float]], delivery: float, statuses: Sequence[str] | None = None) -> Chart:
+                 flows: Sequence[Sequence[float]], delivery: float | Sequence[float],
+                 statuses: Sequence[str] | None = None) -> Chart:
     """Summed flow demand per operating mode, stacked by drive (``flows[mode][drive]``), against the
-    pump delivery drawn as a dashed line. Each drive has its own hatch and grey and a label."""
+    pump delivery drawn as a dashed line. Each drive has its own hatch and grey and a label.
+
+    ``delivery`` a list (one a mode) when the pump's speed belongs to the mode (a shared prime mover at
+    a named speed): then each mode's delivery is a dashed stroke over its own bar."""
     totals = [sum(row) for row in flows]
-    y_max = 1.18 * max(totals + [delivery, 1e-9])
+    per_mode = not isinstance(delivery, (int, float))
+    if per_mode and len(set(delivery)) == 1:
+        delivery, per_mode = delivery[0], False
+    y_max = 1.18 * max(totals + (list(delivery) if per_mode else [delivery]) + [1e-9])
     statuses = list(statuses) if statuses else [None] * len(modes)
 
     # The key of drives stands right of the axes: border pads, hatch swatch, its gap, the widest name.
@@ -406,7 +413,13 @@ def flow_by_mode(fig_id: str, title: str, *, unit: str, modes: Sequence[str], dr
                             fontsize=6.5, zorder=5, bbox=_CLEAR)
             bottoms = [b + h for b, h in zip(bottoms, heights)]
         _bar_tops(ax, xs, totals, statuses)
-        _supply_line(ax, delivery, f"pump delivery {_num(delivery)} {unit}")
+        if per_mode:
+            for x, q in zip(xs, delivery):
+                ax.hlines(q, x - 0.4, x + 0.4, color=INK, linewidth=1.1, linestyle=LIMIT_STYLES["relief"], zorder=4)
+            ax.annotate("dashed: pump delivery at the mode's speed", (1.0, 1.0), xycoords="axes fraction",
+                        xytext=(-3, -9), textcoords="offset points", ha="right", va="top", fontsize=7, bbox=_CLEAR)
+        else:
+            _supply_line(ax, delivery, f"pump delivery {_num(delivery)} {unit}")
         ax.legend(loc="upper left", bbox_to_anchor=(1.0, 1.0), title="drive", title_fontsize=7, handlelength=2.2,
                   handleheight=1.4)
         return ax.figure
@@ -415,12 +428,14 @@ def flow_by_mode(fig_id: str, title: str, *, unit: str, modes: Sequence[str], dr
     for mode, row, total, status in zip(modes, flows, totals, statuses):
         share = ", ".join(f"{d} {_num(q)}" for d, q in zip(drives, row) if q)
         parts.append(f"{mode}: {_num(total)} {unit}{_status_suffix(status).lower()} ({share})")
-    alt = f"{title}. Pump delivery {_num(delivery)} {unit}. Demand by mode: " + "; ".join(parts) + "."
+    have = ("Pump delivery by mode: " + "; ".join(f"{m}: {_num(q)} {unit}" for m, q in zip(modes, delivery))
+            if per_mode else f"Pump delivery {_num(delivery)} {unit}")
+    alt = f"{title}. {have}. Demand by mode: " + "; ".join(parts) + "."
     return Chart(fig_id, _draw(fig_id, build), alt)
 
 
 def power_by_mode(fig_id: str, title: str, *, unit: str, modes: Sequence[str], power: Sequence[float],
-                  available: float | None, statuses: Sequence[str] | None = None) -> Chart:
+                  available: float | None, statuses: Sequence[str] | None = None, shared_by: str = "") -> Chart:
     """Pump input power per operating mode as bars, against the prime mover's power (dashed line)."""
     y_max = 1.18 * max(list(power) + [available or 0.0, 1e-9])
     y_min = 1.18 * min(list(power) + [0.0])  # below zero: the load drives the pump (closed loop, overrunning)
@@ -435,7 +450,9 @@ def power_by_mode(fig_id: str, title: str, *, unit: str, modes: Sequence[str], p
             _supply_line(ax, available, f"prime mover {_num(available)} {unit}")
         return ax.figure
 
-    have = f"Prime mover {_num(available)} {unit}" if available is not None else "No prime mover power given"
+    have = (f"Prime mover {_num(available)} {unit}" if available is not None else
+            f"On the shared prime mover {shared_by}, checked with the other pumps on it" if shared_by else
+            "No prime mover power given")
     parts = "; ".join(f"{m}: {_num(p)} {unit}{_status_suffix(s).lower()}" for m, p, s in zip(modes, power, statuses))
     return Chart(fig_id, _draw(fig_id, build), f"{title}. {have}. Pump input power by mode: {parts}.")
 

@@ -231,3 +231,14 @@ def test_power_chart_reaches_below_zero_for_a_pump_driven_by_its_load():
     assert "-16.70" in shown and "descend: -16.70 kW" in c.alt
     positive = charts.power_by_mode("fig9", "Travel: power", unit="kW", modes=["climb"], power=[30.2], available=42.0)
     assert not any(t.startswith("\N{MINUS SIGN}") for t in texts(positive.svg))
+
+
+def test_a_delivery_that_follows_the_mode_is_drawn_over_each_bar():
+    # A pump on a shared prime mover delivers at each mode's engine speed (yard loader: 60.91 L/min at
+    # 1800 rpm, 81.22 L/min at 2400 rpm): one dashed line at the first mode's delivery would misstate the rest.
+    c = charts.flow_by_mode("fig9", "Work: flow", unit="L/min", modes=["sweeping", "pushing"], drives=["brush"],
+                            flows=[[50.89], [19.56]], delivery=[60.91, 81.22])
+    assert "Pump delivery by mode: sweeping: 60.91 L/min; pushing: 81.22 L/min" in c.alt
+    same = charts.flow_by_mode("fig9", "Work: flow", unit="L/min", modes=["a", "b"], drives=["brush"],
+                               flows=[[10.0], [12.0]], delivery=[40.0, 40.0])
+    assert "Pump delivery 40 L/min" in same.alt or "Pump delivery 40.00 L/min" in same.alt

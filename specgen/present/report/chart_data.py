@@ -111,14 +111,15 @@ def supply_charts(o: Outcome, sup, modes, system: str, fig_n, draw: Batch) -> li
     flow = draw(
         charts.flow_by_mode, fig_n(), f"{sup.title}: flow demand by operating mode", unit=q_unit, modes=names,
         drives=drives, flows=flows,
-        delivery=plain(modes[0]["pump_delivery"], "flow", system),
+        delivery=[plain(r["pump_delivery"], "flow", system) for r in modes],
         statuses=[by_check.get(("pump_flow", sup.id, r.mode)) for r in modes])
     available = modes[0].values.get("prime_mover_power")
     power = draw(
         charts.power_by_mode, fig_n(), f"{sup.title}: pump input power by operating mode", unit=w_unit, modes=names,
         power=[plain(r["pump_input_power"], "power", system) for r in modes],
         available=plain(available.value, "power", system) if available else None,
-        statuses=[by_check.get(("prime_mover_power", sup.id, r.mode)) for r in modes])
+        statuses=[by_check.get(("prime_mover_power", sup.id, r.mode)) for r in modes],
+        shared_by=sup.prime_mover or "")
     return [flow, power]
 
 

@@ -3,7 +3,8 @@
 For each prime mover: its figures as entered (rated power, named speeds, power curve, overspeed limit,
 motoring torque) in one line; a table with a row per mode that runs a pump on it (speed, power
 available, each pump's input power, the sum and the prime_mover_load check's margin); the checks on
-it; and one calculation trace per mode (anchor ``prime-mover-<id>-<mode>``, where its checks link).
+it; and its calculation trace, each relation once with a column a mode (a mode's column is anchored
+``prime-mover-<id>-<mode>``, where its checks link).
 Every number is a Results value or a check's margin, formatted; nothing is recomputed here.
 """
 
@@ -12,9 +13,11 @@ from __future__ import annotations
 from dataclasses import replace
 
 from specgen.pipeline import Outcome
-from specgen.present.report.values import show, slug, trace_row
+from specgen.present.report.grouped import Case, grouped
+from specgen.present.report.values import show, slug
 
 NOUN = {"engine": "Engine", "electric_motor": "Electric motor"}
+CASE_COLUMNS = 7  # value columns a grouped trace prints side by side on a portrait page
 
 
 def anchor(prime_mover: str, mode: str | None = None) -> str:
@@ -55,16 +58,19 @@ def prime_mover_sections(o: Outcome, system: str, checks: list[dict]) -> list[di
                           "available": show(x["power_available"], "power", system), "pumps": cells,
                           "sum": show(x["power_used"], "power", system),
                           "margin": show(margin, "ratio", system) if margin is not None else "-"})
-        traces = []
+        cases = []
         for x in rows:
-            here = anchor(mover.id, x.mode)
-            values = [replace(v, label=f"{v.label}, supply {sid}") for sid, vals in x.per_supply.items()
-                      for k, v in vals.items() if k == "prime_mover_torque"] + list(x.values.values())
-            own = [c for c in checks if c["target"] == here]
-            traces.append({"anchor": here, "title": f"Mode {x.mode}", "grouped": False,
-                           "rows": [trace_row(v, system) for v in values], "checks": own,
-                           "problems": [c for c in own if c["status"] != "pass"],
-                           "passing": [c for c in own if c["status"] == "pass"]})
+            values = {f"prime_mover_torque:{sid}": replace(v, label=f"{v.label}, supply {sid}")
+                      for sid, vals in x.per_supply.items() for k, v in vals.items() if k == "prime_mover_torque"}
+            values.update(x.values)
+            cases.append(Case(x.mode, anchor(mover.id, x.mode), values))
+        # each relation once with a column a mode, as the supplies' traces (at most a page's width of columns)
+        parts = [cases[k:k + CASE_COLUMNS] for k in range(0, len(cases), CASE_COLUMNS)]
+        traces = [grouped(anchor(mover.id) + (f"-part-{n}" if len(parts) > 1 else "-trace"),
+                          f"Calculation trace, {mover.id}" + (f" ({n} of {len(parts)})" if len(parts) > 1 else ""),
+                          part, system, checks) for n, part in enumerate(parts, start=1)]
+        for t in traces:
+            t["checks"] = t["problems"] + t["passing"]
         out.append({"id": mover.id, "title": mover.title, "anchor": anchor(mover.id), "noun": NOUN[mover.kind],
                     "entered": _entered(mover, system), "pumps": pumps, "rows": table, "traces": traces,
                     "checks": [c for t in traces for c in t["checks"]]})

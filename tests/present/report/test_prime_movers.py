@@ -1,5 +1,5 @@
 """The report's shared prime movers (present/report/prime_movers.py, report_templates/prime_movers.html):
-one table per prime mover with a row per mode, its trace per mode, its checks linked there."""
+one table per prime mover with a row per mode, its trace with a column a mode, its checks linked there."""
 
 from __future__ import annotations
 
@@ -29,16 +29,21 @@ def test_table_shows_each_pump_the_sum_and_the_margin(tmp_path):
     assert "Pump front" in section and "Pump rear" in section
 
 
-def test_trace_per_mode_holds_the_sums_and_the_check_links_there(tmp_path):
+def test_trace_holds_the_sums_a_column_a_mode_and_the_check_links_there(tmp_path):
     o, html = page(tmp_path, shared_engine())
-    trace = block(html, "prime-mover-diesel-dig")
-    assert "P_sum = 38.00 kW + 30.00 kW" in trace
-    assert "T_pm = (108.5 N·m) * 1.200" in trace  # pump B's torque referred to the engine shaft
-    start = html.index('id="prime-mover-diesel-dig"')
+    trace = block(html, "prime-mover-diesel-trace")
+    # each relation once (primer 16: the pumps' input powers add; torque referred through the drive ratio)
+    assert trace.count("P_sum = sum(P_in,i)") == 1 and "T_pm = T_p * i_pd" in trace
+    assert 'id="prime-mover-diesel-dig"' in trace  # the mode's column, where its checks link
+    # hand calculation (tests/engine_spec.py) in mode dig: 38 + 30 = 68 kW; pump B's 108.5 N*m times
+    # its drive ratio 1.2 = 130.2 N*m at the engine shaft
+    for text in (">68.00<", ">130.2<"):
+        assert text in trace, text
+    start = html.index('id="prime-mover-diesel-trace"')
     links = html[start:html.index("</div>", start)]
     assert "Shared prime mover covers its pumps" in links  # the check is listed under its trace
     assert "<li><span class=\"status status-warn\">WARN</span>" in links
-    assert 'href="#prime-mover-diesel-dig"' in html  # the checks table links the check to its trace
+    assert 'href="#prime-mover-diesel-dig"' in html  # the checks table links the check to its column
 
 
 def test_no_section_without_shared_prime_movers(tmp_path):
