@@ -141,6 +141,11 @@ def _targets(b: Builder, machine: Machine, key: str, value, how: str, here: tupl
             paths = [p for p in paths if machine.supply(p[1]).prime_mover_speed is not None]
             if not paths:
                 b.fail(here, "no supply gives a prime_mover_speed to move")
+        if rest == ("relief_setting",) and how == "scale":  # a closed loop's own relief sides drift alike
+            for section, sid, *_ in list(paths):
+                loop = machine.supply(sid).closed_loop
+                paths += [(section, sid, "closed_loop", "high_pressure_reliefs", side) for side in ("side_a", "side_b")
+                          if loop is not None and getattr(loop.high_pressure_reliefs, side) is not None]
     else:
         paths = [tuple(key.split("."))]
     out = []

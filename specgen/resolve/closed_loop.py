@@ -71,25 +71,25 @@ def resolve_loop_mode(machine: Machine, sup: Supply, mode, running, duties: dict
         vg_in = Input("Vg", "motor displacement", vg.value, "displacement")
         n_in = Input("n", "motor speed", n.value, "speed")
         if overrun:
-            flows[d] = rec.put(Value("loop_flow", "Flow the motor pumps into the loop", "q_m",
+            flows[d] = rec.put(Value("loop_flow", f"Flow {d} pumps into the loop", "q_m",
                                      vg.value * n.value * v_in.value, "flow", "q_m = Vg * n * eta_v",
                                      "the overrun motor works as a pump: displacement times speed, less its leakage",
                                      (vg_in, n_in, v_in), SRC_HST), drive=d)
             hold = r.values["braking_pressure"]
-            highs[d] = rec.put(Value("high_side_pressure", "High-side pressure the motor builds", "p_H,m", hold.value,
+            highs[d] = rec.put(Value("high_side_pressure", f"High-side pressure {d} builds", "p_H,m", hold.value,
                                      "pressure", "p_H,m = p_hold", "the braking differential on top of the low side",
                                      (Input("p_hold", hold.label, hold.value, "pressure"),), SRC_HST), drive=d)
         else:
-            flows[d] = rec.put(Value("loop_flow", "Flow the motor takes from the loop", "q_m", r["flow_demand"], "flow",
+            flows[d] = rec.put(Value("loop_flow", f"Flow {d} takes from the loop", "q_m", r["flow_demand"], "flow",
                                      "q_m = q", "the motor's flow demand at this duty point",
                                      (Input("q", "flow demand", r["flow_demand"], "flow"),), SRC_HST), drive=d)
             need = r.values.get("supply_pressure_required") or r.values["inlet_pressure"]
-            highs[d] = rec.put(Value("high_side_pressure", "High-side pressure the motor needs", "p_H,m", need.value,
+            highs[d] = rec.put(Value("high_side_pressure", f"High-side pressure {d} needs", "p_H,m", need.value,
                                      "pressure", "p_H,m = p_L + dp + dp_lines",
                                      "its inlet pressure (charge pressure at the outlet plus its differential and "
                                      "return-side drops) plus the pressure-side drops",
                                      (Input(need.symbol, need.label, need.value, "pressure"),), SRC_HST), drive=d)
-        leaks[d] = rec.put(Value("motor_leakage", "Motor leakage the charge pump makes up", "q_leak,m",
+        leaks[d] = rec.put(Value("motor_leakage", f"Leakage of {d} the charge pump makes up", "q_leak,m",
                                  hst.leakage(vg.value, n.value, v_in.value), "flow", "q_leak,m = Vg * n * (1 - eta_v)",
                                  "displacement times speed times the volumetric loss", (vg_in, n_in, v_in),
                                  SRC_CHARGE), drive=d)

@@ -40,3 +40,24 @@ def test_a_bad_override_is_refused_with_exit_2_and_a_located_line(tmp_path, over
     located = [x for x in lines if f"{path}:" in x and "corners.cold" in x]
     assert len(located) == 1 and expected in located[0], err
     assert "Traceback" not in err
+
+
+def test_relief_tolerance_corner_moves_a_closed_loop_relief_side_given_on_its_own(tmp_path):
+    # A relief valve drifts to the top of its tolerance (+5 %, from memory, common practice); a loop whose
+    # side B has its own 400 bar relief drifts to 420 bar with it, while side A follows the 420 bar relief
+    # setting (441 bar at the corner).
+    from helpers import closed_loop
+    from specgen.corners import apply
+    from specgen.intake.read import load_text
+    from specgen.intake.validate import build_with_corners
+    from specgen.resolve.load import decide_directions
+
+    data = closed_loop()
+    data["supplies"]["loop"]["closed_loop"]["high_pressure_reliefs"] = {"side_b": "400 bar"}
+    data["typical_corners"] = True
+    spec = write_spec(tmp_path, data)
+    machine, corners = build_with_corners(load_text(spec.read_bytes(), str(spec)), decide_directions)
+    moved = apply(machine, next(c for c in corners if c.id == "relief_high")).supply("loop")
+    assert moved.relief_setting == pytest.approx(441e5)
+    assert moved.closed_loop.high_pressure_reliefs.side_b == pytest.approx(420e5)
+    assert moved.closed_loop.high_pressure_reliefs.side_a is None
