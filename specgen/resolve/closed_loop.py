@@ -28,6 +28,7 @@ import math
 
 from specgen.calc import closed_loop as hst, supply as pump_calc
 from specgen.intake.model import Machine, Supply
+from specgen.resolve.pump_shaft import prime_mover_draw
 from specgen.resolve.record import Record, eff, motor_eff
 from specgen.results import Contribution, SupplyModeResult
 from specgen.trace import Input, Value, given, indexed
@@ -159,13 +160,7 @@ def resolve_loop_mode(machine: Machine, sup: Supply, mode, running, duties: dict
     rec.put(Value("pump_input_torque", "Pump input torque", "T_p", pump_calc.input_torque(p_in, n_p), "torque",
                   "T_p = P_in / (2*pi*n_p)", "input power over the pump's angular speed", (pin_in, np_in), SRC_HST,
                   note="negative: the pump drives its shaft" if p_in < 0 else ""))
-    if sup.prime_mover_power is not None:
-        rec.put(given("prime_mover_power", "Prime mover power available", "P_pm", sup.prime_mover_power, "power"))
-    if sup.prime_mover_speed is not None:
-        rec.put(Value("prime_mover_torque", "Torque taken from the prime mover", "T_pm",
-                      pump_calc.input_torque(p_in, sup.prime_mover_speed), "torque", "T_pm = P_in / (2*pi*n_pm)",
-                      "pump input power at the prime mover's speed (losses of a pump drive gearbox neglected)",
-                      (pin_in, Input("n_pm", "prime mover speed", sup.prime_mover_speed, "speed")), SRC_HST))
+    prime_mover_draw(rec, sup, p_in, SRC_HST)
     _efficiency_and_heat(rec, [duties[k] for k in carried], overrun, q, dp, p_loop, p_c, p_in)
     return SupplyModeResult(sup.id, mode.id, contributions, rec.values, rec.per_drive, tuple(rec.order))
 

@@ -15,6 +15,7 @@ from dataclasses import dataclass
 
 from specgen.calc import load_sensing as ls
 from specgen.intake.model import Supply
+from specgen.resolve.pump_shaft import braking_and_heat
 from specgen.resolve.record import Record, eff
 from specgen.trace import Input, Value, given, indexed
 
@@ -261,11 +262,4 @@ def _heat(rec: Record, p_in: float, hydraulic: float, throttled: float, over_rel
     rec.put(Value("heat_drive_loss", "Heat in lines, valve drops and motors", "Q_drives", drives, "power",
                   "Q_drives = sum(p_i * q_reached,i) - P_shaft",
                   "hydraulic power at the drives' own needs less their useful shaft power", (), SRC_HEAT))
-    if braking:
-        rec.put(Value("braking_power", "Power absorbed from overrunning loads", "P_brake", p_brake, "power",
-                      "P_brake = sum(P_overrunning)", "the lowering or downhill load's power, turned to heat at the "
-                      "load-holding valve", (), SRC_HEAT))
-    rec.put(Value("heat_load", "Heat load (cooling duty)", "Q", p_in - useful + p_brake, "power",
-                  "Q = P_in - P_shaft + P_brake", "power in that does no useful work, plus power absorbed from the load",
-                  (Input("P_in", "pump input power", p_in, "power"), Input("P_shaft", "useful shaft power", useful, "power"),
-                   Input("P_brake", "absorbed braking power", p_brake, "power")), SRC_HEAT))
+    braking_and_heat(rec, braking, p_brake, p_in, useful, p_in - useful + p_brake)

@@ -22,6 +22,7 @@ from specgen.resolve.load_sensing import ls_pump_and_heat
 from specgen.resolve.closed_loop import resolve_loop_mode
 from specgen.resolve.record import Record, eff
 from specgen.resolve.lines import line_values
+from specgen.resolve.pump_shaft import braking_and_heat, prime_mover_draw
 from specgen.resolve.series import series_start
 from specgen.resolve.suction import suction_values
 from specgen.results import Contribution, FluidResult, ModeResult, SupplyModeResult, SupplyResult
@@ -255,13 +256,7 @@ def _prime_mover(rec: Record, sup: Supply, base, p_in: float) -> None:
         rec.put(Value("pump_input_torque", "Pump input torque", "T_p", pump.input_torque(p_in, n_p), "torque",
                       "T_p = P_in / (2*pi*n_p)", "input power over the pump's angular speed",
                       (pin_in, Input("n_p", "pump shaft speed", n_p, "speed")), SRC_PUMP))
-    if sup.prime_mover_power is not None:
-        rec.put(given("prime_mover_power", "Prime mover power available", "P_pm", sup.prime_mover_power, "power"))
-    if sup.prime_mover_speed is not None:
-        rec.put(Value("prime_mover_torque", "Torque taken from the prime mover", "T_pm",
-                      pump.input_torque(p_in, sup.prime_mover_speed), "torque", "T_pm = P_in / (2*pi*n_pm)",
-                      "pump input power at the prime mover's speed (losses of a pump drive gearbox neglected)",
-                      (pin_in, Input("n_pm", "prime mover speed", sup.prime_mover_speed, "speed")), SRC_PUMP))
+    prime_mover_draw(rec, sup, p_in, SRC_PUMP)
 
 
 def _heat(rec: Record, hb, shaft: float, braking, share: float) -> None:
@@ -277,15 +272,7 @@ def _heat(rec: Record, hb, shaft: float, braking, share: float) -> None:
     rec.put(Value("heat_drive_loss", "Heat in valves, lines and motors", "Q_drives", hb.drive_loss, "power",
                   "Q_drives = q_sum * p_pump - P_shaft",
                   "hydraulic power sent to the drives less their useful shaft power", (), SRC_HEAT))
-    if braking:
-        rec.put(Value("braking_power", "Power absorbed from overrunning loads", "P_brake", p_brake, "power",
-                      "P_brake = sum(P_overrunning)", "the lowering or downhill load's power, turned to heat at the "
-                      "load-holding valve", (), SRC_HEAT))
-    rec.put(Value("heat_load", "Heat load (cooling duty)", "Q", hb.total + p_brake, "power",
-                  "Q = P_in - P_shaft + P_brake", "power in that does no useful work, plus power absorbed from the load",
-                  (Input("P_in", "pump input power", hb.pump_input, "power"),
-                   Input("P_shaft", "useful shaft power", shaft, "power"),
-                   Input("P_brake", "absorbed braking power", p_brake, "power")), SRC_HEAT))
+    braking_and_heat(rec, braking, p_brake, hb.pump_input, shaft, hb.total + p_brake)
 
 
 def mode_heat(mode, supply_modes) -> ModeResult | None:
