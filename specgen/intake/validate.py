@@ -106,8 +106,8 @@ def build_with_corners(source: Source, directions: Directions,
     return build_design(source, directions, allow_outside_files)[:2]
 
 
-def build_design(source: Source, directions: Directions, allow_outside_files: bool = False
-                 ) -> tuple[Machine, tuple[Corner, ...], tuple[Variant, ...]]:
+def build_design(source: Source, directions: Directions, allow_outside_files: bool = False,
+                 screened: bool = False) -> tuple[Machine, tuple[Corner, ...], tuple[Variant, ...]]:
     """Validate ``source`` completely and return its model and its operating corners (each override
     parsed once, against the model). Raises SpecError listing every problem.
 
@@ -115,7 +115,10 @@ def build_design(source: Source, directions: Directions, allow_outside_files: bo
     of the trade, computed where the spec is resolved). Files the spec names (a sizing parts file)
     must lie in the spec's folder tree unless ``allow_outside_files``. Design variants
     (build_variants.py) come last, each replacement read once against the built model."""
-    problems = check_counts(source) or sorted(check_schema(source) + check_text(source), key=_order)
+    # ``screened``: data already counted, schema-checked and screened, changed since only at leaves of the
+    # same type (a variant's numbers and quantities written in): the builders' rules still run in full
+    problems = [] if screened else \
+        check_counts(source) or sorted(check_schema(source) + check_text(source), key=_order)
     if problems:
         raise SpecError(problems)
     b = Builder(source)
@@ -168,12 +171,29 @@ def _variant_keeps_the_rules(b: Builder, source: Source, vid: str, directions: D
     """A variant is a design of its own: written out as a spec (its replacements in place), it must keep
     every rule the base spec keeps (a load-sensing pump needs its margin, a supply names a prime mover
     that exists, a charge pressure stays under the reliefs...), or the variant is refused at its key."""
-    written = Source(source.name, written_out(source.data, vid), b"")
+    data = written_out(source.data, vid)
+    written = Source(source.name, data, b"")
+    base = {k: v for k, v in source.data.items() if k != "variants"}
     try:
-        build_design(written, directions, allow_outside_files)
+        build_design(written, directions, allow_outside_files, screened=_same_shape(base, data))
     except SpecError as e:
         first = e.problems[0]
         b.fail(("variants", vid, "set"), f"with this variant the spec breaks a rule at {first.path}: {first.message}")
+
+
+def _same_shape(a, b) -> bool:
+    """Do ``a`` and ``b`` hold the same keys throughout, with leaves of the same type (text for text,
+    number for number)? Then the schema's verdict on ``a`` holds for ``b`` but for the leaves' own
+    values, which a variant reads by their kind and choices."""
+    if isinstance(a, dict) and isinstance(b, dict):
+        return a.keys() == b.keys() and all(_same_shape(a[k], b[k]) for k in a)
+    if isinstance(a, list) and isinstance(b, list):
+        return len(a) == len(b) and all(_same_shape(x, y) for x, y in zip(a, b))
+    if isinstance(a, bool) or isinstance(b, bool):
+        return isinstance(a, bool) and isinstance(b, bool)
+    if isinstance(a, (int, float)) and isinstance(b, (int, float)):
+        return True
+    return type(a) is type(b) and isinstance(a, str)
 
 
 def _named_tables(b: Builder, d: dict, model: Machine) -> Machine:
