@@ -53,6 +53,12 @@ def with_closed_loop(b: Builder, s: dict, path: tuple, sup: Supply) -> Supply:
     for key, why in _PUMP_OPEN_ONLY.items():
         if key in s["pump"]:
             b.fail(path + ("pump", key), why)
+    pump = sup.pump
+    if pump.overall_efficiency.value > pump.volumetric_efficiency.value:
+        # the loop's pump hydro-mechanical efficiency is their ratio, and it cannot exceed 1
+        b.fail(path + ("pump", "overall_efficiency"), "a closed loop's pump overall efficiency cannot exceed its "
+                                                      "volumetric efficiency (their ratio is its hydro-mechanical "
+                                                      "efficiency, at most 1)")
     lpath = path + ("closed_loop",)
     charge = _charge(b, block["charge"], lpath + ("charge",))
     reliefs = block.get("high_pressure_reliefs", {})

@@ -127,11 +127,17 @@ def resolve_loop_mode(machine: Machine, sup: Supply, mode, running, duties: dict
                        "dp_loop = p_H - p_L", "high side less low side",
                        (Input("p_H", "high-side pressure", p_h, "pressure"),
                         Input("p_L", "low-side pressure", p_l, "pressure")), SRC_HST))
+    ratio = p.overall_efficiency.value / p.volumetric_efficiency.value
+    # The spec's own figures keep the ratio at or under 1 (intake refuses more); an operating corner that
+    # lowers the volumetric efficiency alone can lift it past 1, where it is held at 1 and said so.
     eta_hm = rec.put(Value("pump_hydromechanical_efficiency", "Pump hydro-mechanical efficiency", "eta_hm,p",
-                           p.overall_efficiency.value / p.volumetric_efficiency.value, "ratio",
-                           "eta_hm,p = eta_t,p / eta_v,p", "overall over volumetric efficiency",
+                           min(ratio, 1.0), "ratio",
+                           "eta_hm,p = eta_t,p / eta_v,p" if ratio <= 1 else "eta_hm,p = min(eta_t,p / eta_v,p, 1)",
+                           "overall over volumetric efficiency",
                            (eff("eta_t,p", "pump overall efficiency", p.overall_efficiency,
-                                _pump_path(sup, "overall_efficiency")), ev_in), SRC_HST))
+                                _pump_path(sup, "overall_efficiency")), ev_in), SRC_HST,
+                           note="held at 1: the overall efficiency is above the volumetric here (a corner lowers "
+                                "the volumetric alone); the loop torque here is a lower bound" if ratio > 1 else ""))
     x_in, dp_in = Input("x", "displacement setting", x, "ratio"), Input("dp_loop", "loop differential", dp, "pressure")
     hm_in = Input("eta_hm,p", "pump hydro-mechanical efficiency", eta_hm, "ratio")
     if overrun:

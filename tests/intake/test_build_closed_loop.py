@@ -121,3 +121,11 @@ def test_a_corner_scales_a_relief_side_given_in_the_spec():
     c = spec_check(data, "pressure_margin", drive="wheel", duty="drive")
     assert c.status == "warn" and c.corner == "low_b"
     assert c.margin == pytest.approx(20 / 320, abs=1e-4)
+
+
+def test_pump_overall_efficiency_above_its_volumetric_is_refused(tmp_path):
+    # eta_hm,p = eta_t / eta_v must stay at or under 1 (primer section 15 relations): 0.96 over 0.95 cannot be.
+    data = closed_loop()
+    data["supplies"]["loop"]["pump"]["overall_efficiency"] = 0.96
+    code, out, err = run_cli("check", str(write_spec(tmp_path, data)))
+    assert code == 2 and "supplies.loop.pump.overall_efficiency" in err and "cannot exceed" in err

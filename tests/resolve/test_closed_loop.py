@@ -101,3 +101,25 @@ def test_low_side_is_the_charge_pressure_at_every_motor_outlet():
     # the back pressure and the torque at the limit use the charge pressure: 100e-6*(420-25)e5*0.93/(2*pi)
     assert r.duty("wheel", "drive")["back_pressure"] / BAR == pytest.approx(25.0)
     assert r.duty("wheel", "drive")["relief_torque"] == pytest.approx(100e-6 * 395e5 * 0.93 / (2 * math.pi))
+
+
+def test_a_worn_corner_that_lifts_the_pump_ratio_past_one_holds_it_at_one():
+    # Nominal eta_v 0.95 and eta_t 0.93 (ratio 0.979); a worn corner lowers the volumetric efficiency by 3
+    # points to 0.92, where 0.93 / 0.92 = 1.011 would be a hydro-mechanical efficiency above 1: held at 1,
+    # with a note (hand calculation).
+    data = closed_loop()
+    data["supplies"]["loop"]["pump"]["overall_efficiency"] = 0.93
+    data["corners"] = {"worn": {"scale": {"pumps.volumetric_efficiency": "-3 %"}}}
+    o = evaluate(Source("mem.yaml", data, b""))  # the whole run at the corner, no error
+    assert [k.id for k in o.results.corners] == ["worn"]
+    nominal = _results(data)
+    r = next(x for x in nominal.supply_modes if x.mode == "driving")
+    assert r["pump_hydromechanical_efficiency"] == pytest.approx(0.93 / 0.95)
+    from specgen.corners import apply
+    from specgen.intake.validate import build_with_corners
+    from specgen.resolve.load import decide_directions
+    from specgen.resolve.machine import resolve
+    machine, corners = build_with_corners(Source("mem.yaml", data, b""), decide_directions)
+    moved = resolve(apply(machine, corners[0]))
+    v = next(x for x in moved.supply_modes if x.mode == "driving").values["pump_hydromechanical_efficiency"]
+    assert v.value == 1.0 and "held at 1" in v.note
