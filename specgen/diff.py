@@ -26,6 +26,7 @@ from dataclasses import dataclass
 from specgen.results import RANK
 from specgen.pipeline import Outcome
 from specgen.intake.content import common_kind, si_value
+from specgen.intake.read import plain_data
 from specgen.intake.schema import Field, fields
 
 INPUT_TOLERANCE = 1e-4  # 0.01 %: a value converted to 4-5 significant figures is the same value
@@ -187,15 +188,6 @@ def _close(a: float, b: float, tolerance: float) -> bool:
     return math.isclose(a, b, rel_tol=tolerance, abs_tol=ABSOLUTE_FLOOR)
 
 
-def _plain(value):
-    """A loaded YAML value as plain dicts and lists (the loader's marked types are dict and list)."""
-    if isinstance(value, dict):
-        return {str(k): _plain(v) for k, v in value.items()}
-    if isinstance(value, list):
-        return [_plain(v) for v in value]
-    return value
-
-
 def _same_number(a, b) -> bool:
     numbers = all(isinstance(x, (int, float)) and not isinstance(x, bool) for x in (a, b))
     return numbers and _close(float(a), float(b), INPUT_TOLERANCE)
@@ -219,7 +211,7 @@ def diff_inputs(old: dict, new: dict) -> list[InputChange]:
                 return
             out.append(InputChange(path, "changed", a, b, kind, old_si=sa, new_si=sb))
         elif a != b and not _same_number(a, b):
-            out.append(InputChange(path, "changed", _plain(a), _plain(b), kind))
+            out.append(InputChange(path, "changed", plain_data(a), plain_data(b), kind))
 
     def walk(path, a, b):
         if isinstance(a, dict) and isinstance(b, dict):
@@ -227,18 +219,18 @@ def diff_inputs(old: dict, new: dict) -> list[InputChange]:
                 if k in a:
                     walk(path + (k,), a[k], b[k])
                 else:
-                    out.append(InputChange(path + (k,), "added", None, _plain(b[k]),
+                    out.append(InputChange(path + (k,), "added", None, plain_data(b[k]),
                                            noun=new_info[path + (k,)].noun))
             for k in a:
                 if k not in b:
-                    out.append(InputChange(path + (k,), "removed", _plain(a[k]), None,
+                    out.append(InputChange(path + (k,), "removed", plain_data(a[k]), None,
                                            noun=old_info[path + (k,)].noun))
         elif isinstance(a, list) and isinstance(b, list) and len(a) == len(b):
             for i, (x, y) in enumerate(zip(a, b)):
                 walk(path + (i,), x, y)
         elif isinstance(a, (dict, list)) or isinstance(b, (dict, list)):
-            if _plain(a) != _plain(b):
-                out.append(InputChange(path, "changed", _plain(a), _plain(b)))
+            if plain_data(a) != plain_data(b):
+                out.append(InputChange(path, "changed", plain_data(a), plain_data(b)))
         else:
             leaf(path, a, b)
 

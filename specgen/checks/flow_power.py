@@ -44,15 +44,13 @@ def prime_mover_power(machine: Machine, results: Results, fmt: Fmt) -> Iterator[
         need, have = r["pump_input_power"], r["prime_mover_power"]
         margin = below(need, have)
         st = status(margin, warn)
-        if need < 0:  # a closed loop's overrunning load drives the pump: judged by engine_braking
-            yield Check("prime_mover_power", "Prime mover power covers pump input", st, need, have, "power",
-                        f"The pump returns {fmt(-need, 'power')} to the prime mover: it is driven, not loaded "
-                        "(engine_braking judges it).", supply=r.supply, mode=r.mode, margin=margin)
-            continue
-        yield Check("prime_mover_power", "Prime mover power covers pump input", st, need, have, "power",
-                    f"Pump takes {fmt(need, 'power')} of the prime mover's {fmt(have, 'power')}"
-                    + {"fail": ": the engine or electric motor will stall or trip.",
-                       "warn": f": under {warn:.0%} in hand.", "pass": "."}[st],
+        # a closed loop's overrunning load drives the pump: engine_braking judges that
+        message = (f"The pump returns {fmt(-need, 'power')} to the prime mover: it is driven, not loaded "
+                   "(engine_braking judges it)." if need < 0 else
+                   f"Pump takes {fmt(need, 'power')} of the prime mover's {fmt(have, 'power')}"
+                   + {"fail": ": the engine or electric motor will stall or trip.",
+                      "warn": f": under {warn:.0%} in hand.", "pass": "."}[st])
+        yield Check("prime_mover_power", "Prime mover power covers pump input", st, need, have, "power", message,
                     supply=r.supply, mode=r.mode, margin=margin)
 
 

@@ -26,7 +26,6 @@ one Variant whose machine has the reel motor's displacement_min = displacement_m
 
 from __future__ import annotations
 
-import copy
 import math
 from dataclasses import dataclass, replace
 from typing import Callable
@@ -37,6 +36,7 @@ from specgen.intake.build_corners import GROUPS, Target, _targets, _walk
 from specgen.intake.build_loads import grade_angle
 from specgen.intake.model import Machine
 from specgen.intake.quantities import Builder
+from specgen.intake.read import plain_data
 
 NOUN = "variant"
 _REFUSED = {"kind": "a motor's kind decides its assumed efficiencies; write another drive instead",
@@ -241,7 +241,7 @@ def _decided(b: Builder, moved: Machine, base: Machine, d: dict, targets: list[T
 def written_out(data: dict, vid: str) -> dict:
     """The spec's ``data`` with variant ``vid``'s replacements written in and no ``variants`` key: the
     variant as a spec of its own (for the revision diff, and to hold it to every rule of the spec)."""
-    out = copy.deepcopy(_as_data(data))
+    out = plain_data(data)  # new dicts and lists throughout: the loaded spec is left as it is
     for key, value in data["variants"][vid]["set"].items():
         if key in GROUPS:
             section, rest = GROUPS[key]
@@ -249,17 +249,9 @@ def written_out(data: dict, vid: str) -> dict:
         else:
             paths = [tuple(key.split("."))]
         for path in paths:
-            _put(out, path, _as_data(value))
+            _put(out, path, plain_data(value))
     del out["variants"]
     return out
-
-
-def _as_data(value):
-    if isinstance(value, dict):
-        return {str(k): _as_data(x) for k, x in value.items()}
-    if isinstance(value, list):
-        return [_as_data(x) for x in value]
-    return value
 
 
 def _put(data: dict, path: tuple, value) -> None:

@@ -63,6 +63,15 @@ class MarkedList(list):
     start: tuple[int, int]
 
 
+def plain_data(value):
+    """A loaded value as plain dicts and lists with text keys (the marked types above are dict and list)."""
+    if isinstance(value, dict):
+        return {str(k): plain_data(v) for k, v in value.items()}
+    if isinstance(value, list):
+        return [plain_data(v) for v in value]
+    return value
+
+
 @dataclass
 class Source:
     """A loaded spec: the data, its file name for messages, and the raw bytes for fingerprints."""
